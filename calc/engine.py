@@ -1,0 +1,303 @@
+"""Job evaluation: the circuit at every operating point, then the checks.
+
+``evaluate(job)`` is the engine's one entry point: JSON-shaped dict in,
+JSON-shaped dict out, no I/O. The steps are
+
+1. validate the job against ``calc.model`` and fill its defaults;
+2. build a ``Circuit`` (fluid resolved, every line compiled to SI segments);
+3. solve each operating point (``Circuit.operating_point``);
+4. run the per-line checks (velocity bands, pump inlet), then the ratings and
+   thermal stages, which add their own sections to the result.
+
+The circuit model (stated assumptions):
+
+* lines of the same role are in series in the order listed: pump ->
+  pressure lines -> gear valve -> return lines -> reservoir; feed lines run
+  reservoir -> pump inlet; the reservoir is at 0 bar gauge;
+* at neutral the pump outlet pressure is the sum of the pressure-line, gear
+  and return-line drops at the delivered flow; if that exceeds the relief
+  setting (cold fluid), the relief opens and the circuit flow is the flow at
+  which the circuit drop equals the relief setting;
+* at full lock the gear valve is closed: the lines carry no flow, the
+  pressure lines stand at the relief setting and the whole delivered flow
+  crosses the relief, which discharges inside the pump (so the feed line
+  carries only the circuit flow);
+* the gear valve drop scales with flow squared (orifice flow) from the
+  stated neutral drop.
+"""
+from __future__ import annotations
+
+import math
+
+from . import fluid as fluidmod
+from . import hydraulics as hyd
+from .model import validate_job
+from .pump import delivered_flow_m3_s
+from .schema import Problem
+
+__all__ = ["evaluate", "Circuit", "INLET_MIN_BAR"]
+
+#: Lowest pump-inlet gauge pressure before aeration and cavitation (common practice, no source).
+INLET_MIN_BAR = -0.2
+LPM = 1.0 / 60000.0  # m^3/s per L/min
+BAR = 1e5
+
+
+class Circuit:
+    """A validated job compiled for repeated evaluation.
+
+    Parameters
+    ----------
+    job : dict
+        A job normalised by ``calc.model.validate_job`` (fluid resolved).
+    """
+
+    def __init__(self, job: dict):
+        self.job = job
+        self.fluid = job["fluid"]
+        self.pump = job["pump"]
+        self.gear = job["gear"]
+        self.lines = []
+        for i, ln in enumerate(job["lines"]):
+            self.lines.append({"index": i, "name": ln["name"] or f"line {i + 1}", "role": ln["role"],
+                               "parts": ln["parts"], "segs": hyd.compile_line(ln["parts"])})
+        self.by_role = {r: [ln for ln in self.lines if ln["role"] == r] for r in ("pressure", "return", "feed")}
+
+    # -- pieces --------------------------------------------------------------
+    def state(self, t_c: float) -> fluidmod.FluidState:
+        return fluidmod.state(self.fluid, t_c)
+
+    def pump_flow(self, engine_rpm: float) -> tuple[float, float, bool]:
+        p = self.pump
+        return delivered_flow_m3_s(p["displacement_cc_rev"], engine_rpm, p["pulley_ratio"],
+                                   p["volumetric_efficiency"], p["flow_limit_lpm"] * LPM)
+
+    def gear_drop_pa(self, q_m3_s: float) -> float:
+        q0 = self.gear["at_flow_lpm"] * LPM
+        return self.gear["neutral_drop_bar"] * BAR * (q_m3_s / q0) ** 2
+
+    def circuit_drop_pa(self, q_m3_s: float, st: fluidmod.FluidState) -> float:
+        """Pump outlet gauge pressure needed to push ``q_m3_s`` round at neutral, Pa."""
+        total = self.gear_drop_pa(q_m3_s)
+        for role in ("pressure", "return"):
+            for ln in self.by_role[role]:
+                total += hyd.line_flow(ln["segs"], q_m3_s, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+        return total
+
+    # -- an operating point ----------------------------------------------------
+    def operating_point(self, cond: dict, t_c: float | None = None, detail: bool = True) -> dict:
+        """Solve one operating point.
+
+        Parameters
+        ----------
+        cond : dict
+            A validated condition (engine_rpm, fluid_temp_c, full_lock).
+        t_c : float, optional
+            Fluid temperature to use instead of the condition's own [C]
+            (the thermal solver calls this with trial temperatures).
+        detail : bool
+            Include per-part and per-node results.
+        """
+        t = cond["fluid_temp_c"] if t_c is None else t_c
+        st = self.state(t)
+        relief_pa = self.pump["relief_bar"] * BAR
+        q_pump, q_uncapped, capped = self.pump_flow(cond["engine_rpm"])
+        relief_open = False
+        if cond["full_lock"]:
+            q_lines, q_relief, p_out = 0.0, q_pump, relief_pa
+            relief_open = True
+        else:
+            p_out = self.circuit_drop_pa(q_pump, st)
+            q_lines, q_relief = q_pump, 0.0
+            if p_out > relief_pa:
+                q_lines = _solve_flow(lambda q: self.circuit_drop_pa(q, st) - relief_pa, q_pump)
+                q_relief, p_out, relief_open = q_pump - q_lines, relief_pa, True
+        res = {"name": cond["name"], "engine_rpm": cond["engine_rpm"], "fluid_temp_c": t,
+               "full_lock": cond["full_lock"], "viscosity_cst": st.nu_m2_s * 1e6,
+               "density_kg_m3": st.rho_kg_m3, "pump_flow_lpm": q_pump / LPM,
+               "pump_flow_uncapped_lpm": q_uncapped / LPM, "flow_control_limiting": capped,
+               "circuit_flow_lpm": q_lines / LPM, "relief_flow_lpm": q_relief / LPM,
+               "relief_open": relief_open, "pump_outlet_bar": p_out / BAR,
+               "gear_drop_bar": (0.0 if cond["full_lock"] else self.gear_drop_pa(q_lines)) / BAR}
+        lines_out = [None] * len(self.lines)
+        # pressure side: node pressures from the pump outlet forward
+        p = p_out
+        for ln in self.by_role["pressure"]:
+            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p, detail, static=cond["full_lock"])
+            p = r["outlet_bar"] * BAR
+        # return side: node pressures from the reservoir (0 bar) backward
+        p = 0.0
+        for ln in reversed(self.by_role["return"]):
+            dp = hyd.line_flow(ln["segs"], q_lines, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p + dp, detail)
+            p += dp
+        res["gear_outlet_bar"] = p / BAR
+        # feed side: from the reservoir (0 bar) forward to the pump inlet
+        p = 0.0
+        for ln in self.by_role["feed"]:
+            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p, detail)
+            p = r["outlet_bar"] * BAR
+        res["pump_inlet_bar"] = p / BAR
+        res["has_feed_line"] = bool(self.by_role["feed"])
+        res["lines"] = lines_out
+        return res
+
+    def _line(self, ln: dict, q: float, st, p_in_pa: float, detail: bool, static: bool = False) -> dict:
+        dp, parts = hyd.line_flow(ln["segs"], q, st.nu_m2_s, st.rho_kg_m3, detail=True)
+        if static:  # full lock: no flow, the line stands at the inlet pressure less elevation
+            pass
+        velocities = [pt["velocity_m_s"] for pt in parts if pt["kind"] != "device"]
+        res_ = [pt["reynolds"] for pt in parts if pt["kind"] != "device" and pt["reynolds"] > 0]
+        rhocp = st.rho_kg_m3 * st.cp_j_kgk
+        out = {"index": ln["index"], "name": ln["name"], "role": ln["role"], "flow_lpm": q / LPM,
+               "velocity_max_m_s": max(velocities, default=0.0),
+               "reynolds_min": min(res_, default=0.0), "reynolds_max": max(res_, default=0.0),
+               "pressure_drop_bar": dp / BAR, "inlet_bar": p_in_pa / BAR, "outlet_bar": (p_in_pa - dp) / BAR,
+               "temp_rise_c": max(dp, 0.0) / rhocp,
+               "transitional": any(pt["regime"] == "transitional" for pt in parts)}
+        if detail:
+            nodes = [{"after_part": -1, "pressure_bar": p_in_pa / BAR}]
+            p = p_in_pa
+            plist = []
+            for pt in parts:
+                p -= pt["dp_pa"]
+                nodes.append({"after_part": pt["index"], "pressure_bar": p / BAR})
+                plist.append({"index": pt["index"], "kind": pt["kind"], "velocity_m_s": pt["velocity_m_s"],
+                              "reynolds": pt["reynolds"], "regime": pt["regime"],
+                              "friction_factor": pt["friction_factor"], "k_minor": pt["k_minor"],
+                              "pressure_drop_bar": pt["dp_pa"] / BAR,
+                              "friction_bar": pt["friction_pa"] / BAR, "minor_bar": pt["minor_pa"] / BAR,
+                              "transition_bar": pt["transition_pa"] / BAR,
+                              "elevation_bar": pt["elevation_pa"] / BAR,
+                              "temp_rise_c": max(pt["dp_pa"] - pt["elevation_pa"], 0.0) / rhocp})
+            out["parts"] = plist
+            out["nodes"] = nodes
+        return out
+
+
+def _solve_flow(f, q_hi: float) -> float:
+    """Root of the increasing function ``f`` on [0, q_hi] by bisection (f(0) < 0 < f(q_hi))."""
+    lo, hi = 0.0, q_hi
+    if f(lo) >= 0.0:
+        return 0.0
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        if f(mid) > 0.0:
+            hi = mid
+        else:
+            lo = mid
+        if hi - lo < 1e-9 * q_hi:
+            break
+    return 0.5 * (lo + hi)
+
+
+# -- checks ---------------------------------------------------------------------
+def _check(check: str, verdict: str, message: str) -> dict:
+    return {"check": check, "verdict": verdict, "message": message}
+
+
+def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict]]:
+    """Velocity-band, regime and pump-inlet checks per line over all conditions."""
+    out = []
+    for ln in circuit.lines:
+        j = ln["index"]
+        checks = []
+        lo, hi = hyd.VELOCITY_BANDS_M_S[ln["role"]]
+        worst = max(conditions, key=lambda c: c["lines"][j]["velocity_max_m_s"])
+        v = worst["lines"][j]["velocity_max_m_s"]
+        band = f"{lo:g}-{hi:g} m/s for a {ln['role']} line (common practice)"
+        if v > 1.5 * hi:
+            checks.append(_check("velocity", "fail", f"use a larger bore: velocity {v:.1f} m/s at "
+                                                     f"'{worst['name']}' is far above {band}"))
+        elif v > hi:
+            checks.append(_check("velocity", "caution", f"consider a larger bore: velocity {v:.1f} m/s at "
+                                                        f"'{worst['name']}' exceeds {band}"))
+        else:
+            checks.append(_check("velocity", "ok", f"velocity at most {v:.1f} m/s ('{worst['name']}'), "
+                                                   f"within {band}"))
+        trans = [c["name"] for c in conditions if c["lines"][j]["transitional"]]
+        if trans:
+            checks.append(_check("regime", "caution", "flow in the laminar-turbulent band (Re 2000-4000) at "
+                                 + ", ".join(f"'{n}'" for n in trans) + ": friction interpolated between the "
+                                 "laminar and Colebrook values, so the drop there is less certain"))
+        if ln["role"] == "feed" and ln is circuit.by_role["feed"][-1]:
+            low = min(conditions, key=lambda c: c["pump_inlet_bar"])
+            pin = low["pump_inlet_bar"]
+            if pin < INLET_MIN_BAR:
+                checks.append(_check("pump inlet", "fail",
+                                     f"use a larger or shorter feed line, or raise the reservoir: pump inlet "
+                                     f"{pin:.2f} bar gauge at '{low['name']}' is below {INLET_MIN_BAR} bar, "
+                                     "where the fluid aerates and the pump cavitates (common practice)"))
+            else:
+                checks.append(_check("pump inlet", "ok", f"pump inlet at least {pin:.2f} bar gauge "
+                                                         f"('{low['name']}'), above {INLET_MIN_BAR} bar"))
+        out.append(checks)
+    return out
+
+
+def _finite(obj):
+    """Replace non-finite floats by None so the result is valid JSON (never expected)."""
+    if isinstance(obj, float):
+        return obj if math.isfinite(obj) else None
+    if isinstance(obj, dict):
+        return {k: _finite(v) for k, v in obj.items()}
+    if isinstance(obj, list):
+        return [_finite(v) for v in obj]
+    return obj
+
+
+def evaluate(job) -> dict:
+    """Evaluate a job.
+
+    Parameters
+    ----------
+    job : dict
+        A job document (see ``calc.model``), as parsed from JSON.
+
+    Returns
+    -------
+    result : dict
+        ``{"ok": False, "errors": [{"path", "message"}], "warnings": [...]}``
+        for an invalid job; otherwise ``{"ok": True, "job_name", "fluid",
+        "conditions": [...], "lines": [...], "warnings": [...],
+        "methods": [...]}``, every figure in SI or with its unit in the key.
+
+    Examples
+    --------
+    >>> import json, importlib.resources as ir
+    >>> demo = json.loads((ir.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
+    >>> r = evaluate(demo)
+    >>> r["ok"], len(r["conditions"]) > 0
+    (True, True)
+    """
+    norm, problems, warnings = validate_job(job)
+    if problems:
+        return {"ok": False, "errors": [p.as_dict() for p in problems],
+                "warnings": [w.as_dict() for w in warnings]}
+    circuit = Circuit(norm)
+    conditions = [circuit.operating_point(c) for c in norm["conditions"]]
+    checks = hydraulic_checks(circuit, conditions)
+    lines = [{"index": ln["index"], "name": ln["name"], "role": ln["role"], "checks": checks[ln["index"]]}
+             for ln in circuit.lines]
+    for c in conditions:
+        if c["relief_open"] and not c["full_lock"]:
+            warnings.append(Problem("conditions", f"at '{c['name']}' the circuit drop at neutral reaches the "
+                                                  "relief setting: the relief is open and the lines carry "
+                                                  "only part of the pump's flow"))
+    fl = circuit.fluid
+    result = {
+        "ok": True,
+        "job_name": norm["name"],
+        "fluid": {k: fl[k] for k in ("name", "preset", "visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3",
+                                     "specific_heat_j_kgk", "max_temp_c", "source")},
+        "conditions": conditions,
+        "lines": lines,
+        "warnings": [w.as_dict() for w in warnings],
+        "methods": [
+            "Friction: 64/Re below Re 2000; Colebrook (Clamond's solution) above 4000; linear in Re between.",
+            "Fittings: Darby 3-K; bends: Rennels less arc friction; bore changes: Hooper sharp contraction "
+            "and expansion; reservoir entrance: Hooper 2-K.",
+            "Gear valve drop scaled as flow squared from its stated neutral drop.",
+        ],
+    }
+    return _finite(result)

@@ -1,0 +1,78 @@
+"""The readable text report of an evaluated job (command line)."""
+from __future__ import annotations
+
+from .units import label, to_display
+
+__all__ = ["text_report", "CAUTIONS"]
+
+#: The cautions shown wherever a rating is shown (page, report, build sheet).
+CAUTIONS = (
+    "Never exceed the maker's rated working pressure of any part.",
+    "A hose assembly is rated only as high as its weakest component: hose, fitting or adapter.",
+    "A high-pressure fluid injection injury needs emergency medical care even when it looks minor.",
+    "Depressurise the circuit and let the fluid cool before working on it.",
+    "This tool does not replace the maker's data, local codes or licensed practice.",
+)
+
+
+def _u(v, kind, units, fmt="{:.2f}"):
+    return fmt.format(to_display(v, kind, units))
+
+
+def text_report(res: dict, units: str = "metric") -> str:
+    """Format an ``evaluate`` result as plain text tables.
+
+    Parameters
+    ----------
+    res : dict
+        A successful ``calc.evaluate`` result.
+    units : str
+        'metric' (bar, L/min, mm, C) or 'us' (psi, gpm, in, F).
+    """
+    P, Q, T, V = (label(k, units) for k in ("pressure_bar", "flow_lpm", "temp_c", "speed_m_s"))
+    out = [f"Linesmith report: {res['job_name'] or '(unnamed job)'}",
+           f"Fluid: {res['fluid']['name']} ({res['fluid']['source']})", ""]
+    for c in res["conditions"]:
+        out.append(f"== {c['name']}: {c['engine_rpm']:.0f} rpm, fluid {_u(c['fluid_temp_c'], 'temp_c', units, '{:.0f}')} {T}"
+                   f"{', full lock' if c['full_lock'] else ''}; viscosity {c['viscosity_cst']:.1f} cSt, "
+                   f"density {c['density_kg_m3']:.0f} kg/m3")
+        out.append(f"   pump flow {_u(c['pump_flow_lpm'], 'flow_lpm', units)} {Q}"
+                   f"{' (flow control limiting)' if c['flow_control_limiting'] else ''}, "
+                   f"circuit flow {_u(c['circuit_flow_lpm'], 'flow_lpm', units)} {Q}, "
+                   f"over relief {_u(c['relief_flow_lpm'], 'flow_lpm', units)} {Q}")
+        out.append(f"   pump outlet {_u(c['pump_outlet_bar'], 'pressure_bar', units)} {P}, "
+                   f"pump inlet {_u(c['pump_inlet_bar'], 'pressure_bar', units, '{:.3f}')} {P}"
+                   + ("" if c.get("has_feed_line", True) else " (no feed line listed)"))
+        if "heat_w" in c:
+            out.append(f"   heat generated {_u(c['heat_w'], 'power_w', units, '{:.0f}')} {label('power_w', units)}")
+        for ln in c["lines"]:
+            out.append(f"   -- {ln['name']} ({ln['role']}): flow {_u(ln['flow_lpm'], 'flow_lpm', units)} {Q}, "
+                       f"drop {_u(ln['pressure_drop_bar'], 'pressure_bar', units, '{:.3f}')} {P}, "
+                       f"v max {_u(ln['velocity_max_m_s'], 'speed_m_s', units)} {V}, Re min {ln['reynolds_min']:.0f}, "
+                       f"dT {ln['temp_rise_c']:.3f} K")
+            out.append(f"      {'#':>3} {'part':<9} {'v ' + V:>10} {'Re':>8} {'regime':<13} {'drop ' + P:>11}")
+            for pt in ln.get("parts", []):
+                out.append(f"      {pt['index']:>3} {pt['kind']:<9} {_u(pt['velocity_m_s'], 'speed_m_s', units):>10} "
+                           f"{pt['reynolds']:>8.0f} {pt['regime']:<13} "
+                           f"{_u(pt['pressure_drop_bar'], 'pressure_bar', units, '{:.4f}'):>11}")
+        out.append("")
+    out.append("Checks per line")
+    rated = False
+    for ln in res["lines"]:
+        out.append(f"  {ln['name']} ({ln['role']})")
+        if "rating" in ln:
+            rated = True
+        for ch in ln["checks"]:
+            out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+    if res.get("warnings"):
+        out.append("")
+        out.append("Warnings")
+        for w in res["warnings"]:
+            out.append(f"  {w['path']}: {w['message']}")
+    out.append("")
+    out.append("Methods: " + " ".join(res.get("methods", [])))
+    if rated:
+        out.append("")
+        out.append("Cautions")
+        out.extend(f"  - {c}" for c in CAUTIONS)
+    return "\n".join(out)
