@@ -91,7 +91,7 @@ def walther_coefficients(t1_k: float, nu1_cst: float, t2_k: float, nu2_cst: floa
     --------
     >>> A, B = walther_coefficients(313.15, 32.0, 373.15, 5.4)
     >>> round(B, 3)
-    3.932
+    3.747
 
     References
     ----------
