@@ -139,6 +139,7 @@ function startEngine() {
       pending.delete(message.id);
       if (resolve) resolve(JSON.parse(message.response));
     } else if (message.type === "ready") {
+      body.dataset.workerTimings = JSON.stringify(message.timings_ms);
       setStatus("Calculating the demo job…", 95);
       const reply = await call({ op: "evaluate", job: demo });
       if (!reply.ok) {
