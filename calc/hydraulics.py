@@ -18,7 +18,9 @@ Methods (all from ``fluids`` except where stated):
   depends on Re through f) less the straight friction of the arc, because the
   arc is already in the part's length;
 * fitting bodies: Darby 3-K (``fluids.Darby3K``) for elbows and tees, Reynolds
-  dependent; a banjo is taken as two drilled 90 degree turns (common practice,
+  dependent, with the bore in inches as Darby's nominal size (the small drilled
+  passages of hydraulic fittings lie below the smallest pipe size of the
+  correlation's data: an extrapolation, stated); a banjo is taken as two drilled 90 degree turns (common practice,
   no source);
 * a change of bore between two consecutive parts: sharp contraction and sharp
   expansion by Hooper's Reynolds-dependent method (``fluids.contraction_sharp``,
@@ -267,7 +269,10 @@ def line_flow(segs: list[Segment], q_m3_s: float, nu_m2_s: float, rho_kg_m3: flo
                         k_minor += max(k, 0.0)
                 elif s.kind == "fitting" and s.shape in _DARBY:
                     name, n = _DARBY[s.shape]
-                    k_minor += n * Darby3K(Re=re, name=name, Di=d)
+                    # Darby's size term uses the nominal size in inches; fluids maps a bore to
+                    # NPS by the Schedule 40 table, which goes negative below 1/8 NPS, so the
+                    # bore in inches is passed as the nominal size (small drilled fittings).
+                    k_minor += n * Darby3K(Re=re, name=name, NPS=d / 0.0254)
                 elif s.kind == "entrance":
                     k_minor += 160.0 / re + _entrance_k(s.edge, d)
                 elif s.kind == "exit":
