@@ -156,10 +156,18 @@ PORT = Record("port", "Port", (
           help="Thread designation from the thread tables (for example '5/8-18 UNF' or 'M16x1.5')."),
     Field("seal", "Port seal", "choice", default=None, choices=SEAL_TYPES,
           help="How the port seals."),
-    Field("line_end", "Line end", "choice", default=None, choices=SEAL_TYPES,
-          help="Seal type of the hose or tube end that must meet this port."),
-    Field("line_thread", "Line end thread", "text", default=None,
-          help="Thread of the hose or tube end, when known."),
+    Field("line_end_family", "Line end", "choice", default=None,
+          choices=("jic-37", "orb", "inverted-flare-45", "flare-45-sae", "cone-24-l", "cone-24-s",
+                   "metric-oring-port", "metric-washer-port", "bspp-port", "pipe-npt", "pipe-bspt", "banjo",
+                   "barb-clamp"),
+          help="End family of the hose or tube fitting that meets this port; the adapters between them are "
+               "planned from the thread tables."),
+    Field("line_end_dash", "Line end size (dash)", "integer", default=None, gt=0, le=64,
+          help="Dash size of the line end (inch families and hose barbs)."),
+    Field("line_end_tube_od_mm", "Line end tube outside diameter", unit="length_mm", default=None, gt=0, le=100,
+          help="Tube outside diameter of a 24 deg cone end (for example 10 for 10L)."),
+    Field("line_end_thread", "Line end thread", "text", default=None,
+          help="Thread of the line end, for metric studs, banjo bolts and pipe threads (for example 'M14x1.5')."),
 ), default=None)
 
 LINE = Record("line", "Line", (
