@@ -324,6 +324,28 @@ def write_manifest(out_dir: Path) -> dict:
     return manifest
 
 
+def _swap_into_place(stage: Path, out_dir: Path, attempts: int = 20) -> None:
+    """Move stage to out_dir, moving any previous build aside first.
+
+    Retries briefly when another build swaps the same folder at the same moment.
+    """
+    for attempt in range(attempts):
+        old = out_dir.with_name(f".{out_dir.name}-old-{os.getpid()}-{time.monotonic_ns()}")
+        try:
+            if out_dir.exists():
+                os.replace(out_dir, old)
+            os.replace(stage, out_dir)
+        except OSError:
+            if attempt == attempts - 1:
+                raise
+            time.sleep(0.05)
+            continue
+        finally:
+            if old.exists():
+                shutil.rmtree(old, ignore_errors=True)
+        return
+
+
 def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR) -> dict:
     """Build the static site into out_dir and return its manifest.
 
@@ -369,13 +391,7 @@ def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR) -> dict:
         render_page(stage, demos, [calc_wheel.name] + [w.name for w in other_wheels])
         manifest = write_manifest(stage)
 
-        old = None
-        if out_dir.exists():
-            old = out_dir.with_name(f".{out_dir.name}-old-{os.getpid()}-{time.monotonic_ns()}")
-            os.replace(out_dir, old)
-        os.replace(stage, out_dir)
-        if old is not None:
-            shutil.rmtree(old, ignore_errors=True)
+        _swap_into_place(stage, out_dir)
     except BaseException:
         shutil.rmtree(stage, ignore_errors=True)
         raise

@@ -14,7 +14,7 @@ from urllib.parse import urlsplit
 
 import pytest
 
-from browser_support import (
+from .browser_support import (
     LAUNCH_ARGS,
     find_chromium,
     load_build_module,
