@@ -235,6 +235,29 @@ def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict
     return out
 
 
+def validity_warnings(circuit: Circuit, conditions: list[dict]) -> list[Problem]:
+    """Inputs outside the validity range of a method: warnings, not errors."""
+    out = []
+    for ln in circuit.lines:
+        for s in ln["segs"]:
+            path = f"lines[{ln['index']}].parts[{s.index}]"
+            if s.d_m and s.eps_m / s.d_m > 0.05:
+                out.append(Problem(f"{path}.roughness_mm", "relative roughness above 0.05, beyond the range "
+                                                            "Colebrook's equation was fitted to"))
+            for k, (_, rc) in enumerate(s.bends):
+                if rc / s.d_m < 1.0:
+                    out.append(Problem(f"{path}.bends[{k}].radius_mm", "bend radius under one bore: beyond the "
+                                                                       "range of the rounded-bend method"))
+    for i, c in enumerate(conditions):
+        if c["viscosity_cst"] < 2.0:
+            out.append(Problem(f"conditions[{i}].fluid_temp_c", f"viscosity {c['viscosity_cst']:.2f} cSt is "
+                                                                "under 2 cSt, where ASTM D341 is least certain"))
+        if not -40.0 <= c["fluid_temp_c"] <= 150.0:
+            out.append(Problem(f"conditions[{i}].fluid_temp_c", "far outside the 40-100 C datasheet points: "
+                                                                "the viscosity is an extrapolation"))
+    return out
+
+
 def _finite(obj):
     """Replace non-finite floats by None so the result is valid JSON (never expected)."""
     if isinstance(obj, float):
@@ -278,6 +301,7 @@ def evaluate(job) -> dict:
     circuit = Circuit(norm)
     conditions = [circuit.operating_point(c) for c in norm["conditions"]]
     checks = hydraulic_checks(circuit, conditions)
+    warnings.extend(validity_warnings(circuit, conditions))
     lines = [{"index": ln["index"], "name": ln["name"], "role": ln["role"], "checks": checks[ln["index"]]}
              for ln in circuit.lines]
     # -- stage: ratings (calc.ratings.assess adds lines[j].rating, checks and candidates) --

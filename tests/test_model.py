@@ -186,3 +186,13 @@ def test_model_declares_every_key_once():
                 if hasattr(item, "fields"):
                     walk(item)
     walk(JOB)
+
+
+def test_method_validity_warnings():
+    # Source: validity ranges stated in calc.hydraulics (Colebrook fitted to eps/D <= 0.05; rounded
+    # bends for r/D >= 1, from memory of Rennels 2012).
+    job = simple_job()
+    job["lines"][0]["parts"][0].update(roughness_mm=0.8, bends=[{"angle_deg": 90, "radius_mm": 5}])
+    res = evaluate(job)
+    paths = {w["path"] for w in res["warnings"]}
+    assert "lines[0].parts[0].roughness_mm" in paths and "lines[0].parts[0].bends[0].radius_mm" in paths
