@@ -67,9 +67,9 @@ from pathlib import Path
 
 from . import model
 
-__all__ = ["TOLERANCE", "END_FAMILIES", "SEAL_WORDS", "thread_table", "end_table", "find_thread",
+__all__ = ["TOLERANCE", "END_FAMILIES", "SEAL_WORDS", "PORT_WORDS", "thread_table", "end_table", "find_thread",
            "expected_reading_mm", "identify", "parse_length", "parse_pitch", "plan_adapters",
-           "adapter_parts", "main_thread"]
+           "plan_for_port", "adapter_parts", "main_thread"]
 
 _DATA = Path(__file__).resolve().parent / "data" / "threads.json"
 
@@ -93,8 +93,8 @@ END_FAMILIES = {
     "metric-oring-port": ("metric O-ring stud", "ISO 6149", "male"),
     "metric-washer-port": ("metric stud with washer", "ISO 9974", "male"),
     "bspp-port": ("BSPP stud with bonded washer", "ISO 1179", "male"),
-    "pipe-npt": ("NPT pipe thread", "ASME B1.20.1", "male"),
-    "pipe-bspt": ("BSPT pipe thread", "ISO 7-1", "male"),
+    "pipe-npt": ("pipe thread", "ASME B1.20.1", "male"),
+    "pipe-bspt": ("pipe thread", "ISO 7-1", "male"),
     "banjo": ("banjo and bolt", "common practice", "male"),
     "barb-clamp": ("hose barb with clamp", "common practice", "hose"),
 }
@@ -106,6 +106,13 @@ SEAL_WORDS = {
     "metric-oring": "O-ring", "crush-washer": "crush washer (bonded or copper)",
     "pipe-taper": "thread sealant (tapered thread)", "hose-barb": "hose clamp on a barb",
     "unknown": "unknown",
+}
+
+#: What a port of each seal type is, in words.
+PORT_WORDS = {
+    "flare-37": "37 deg flare stub", "flare-45": "inverted-flare port", "cone-24": "24 deg cone stub",
+    "oring-boss": "O-ring port", "metric-oring": "O-ring port", "crush-washer": "washer-face port",
+    "pipe-taper": "tapered pipe port", "hose-barb": "barbed nipple", "unknown": "port",
 }
 
 _MINOR_FACTOR = {"60-deg": 1.082532, "55-deg": 1.280654, "60-deg-npt": 1.6}
@@ -487,8 +494,11 @@ def _port_gender(seal: str) -> str:
 
 
 def _port_end_rows(thread: dict, seal: str) -> list[dict]:
-    """End rows with this thread whose seal matches the port's."""
-    return [e for e in thread["ends"] if _seal_class(e["seal"]) == _seal_class(seal)]
+    """End rows that could form the port side of an adapter: this thread, the port's seal,
+    the gender that mates with the port, and not a banjo bolt."""
+    want = "female" if _port_gender(seal) == "male" else "male"
+    return [e for e in thread["ends"] if _seal_class(e["seal"]) == _seal_class(seal)
+            and e["family"] != "banjo" and END_FAMILIES[e["family"]][2] == want]
 
 
 def _resolve_end(line_end: dict) -> dict:
@@ -587,7 +597,7 @@ def plan_adapters(port: dict, line_end: dict) -> dict:
 
     >>> p = plan_adapters({"thread": "M16x1.5", "seal": "metric-oring"}, {"family": "jic-37", "dash": 6})
     >>> p["ok"], [a["name"] for a in p["adapters"]], p["adapters"][0]["working_bar"]
-    (True, ['M16x1.5 metric O-ring stud (ISO 6149) to 37 deg flare -6 (SAE J514) male'], 250)
+    (True, ['M16x1.5 metric O-ring stud (ISO 6149) male to 37 deg flare -6 (SAE J514) male'], 250)
 
     A 3/8 in inverted-flare tube nut fits a 5/8-18 inverted-flare port directly:
 
@@ -659,12 +669,18 @@ def _plan(port: dict, line_end: dict) -> dict:
         ps, es = _seal_class(seal), _seal_class(end["seal"])
         if ps == es:
             extra = " Use thread sealant on the taper." if ps == "pipe-taper" else ""
+            same = sorted({e["size"] for e in th["ends"] if _seal_class(e["seal"]) == ps
+                           and e["family"] != "banjo" and e["family"] != efam
+                           and END_FAMILIES[e["family"]][2] == egender})
+            if same:
+                extra += (f" The {t} thread is also used by {', '.join(same)} of another series or family "
+                          f"with the same seal: check that the port is {end['size']}.")
             return {"ok": True, "adapters": [],
-                    "message": f"The {_end_text(end)} fits the {t} {SEAL_WORDS[seal]} port directly.{extra}"}
+                    "message": f"The {_end_text(end)} fits the {t} {PORT_WORDS[seal]} directly.{extra}"}
         reason = _REASONS.get(frozenset((ps, es)),
                               f"the sealing methods differ (port: {SEAL_WORDS[seal]}; line end: "
                               f"{SEAL_WORDS[end['seal']]}) and no standard pairs them")
-        return _refuse(f"The {_end_text(end)} would screw onto the {t} port but would not seal: {reason}. "
+        return _refuse(f"The {_end_text(end)} would screw onto the {t} {PORT_WORDS[seal]} but would not seal: {reason}. "
                        f"Use an end of the port's own kind, or an adapter from the port to this end.")
     if mates and th["tapered"] != eth["tapered"]:
         pass  # taper against parallel of one size needs an adapter like any other pair
@@ -680,19 +696,19 @@ def _one_adapter(th: dict, seal: str, pgender: str, prow: list, end: dict, note:
     if prow:
         pname = f"{END_FAMILIES[prow[0]['family']][0]} ({END_FAMILIES[prow[0]['family']][1]})"
     else:
-        pname = f"{SEAL_WORDS[seal]} end"
-    name = f"{t} {pname} to {elabel} {end['size']} ({estd}) {to_gender}"
+        pname = f"{SEAL_WORDS[seal]} stud" if from_gender == "male" else f"{SEAL_WORDS[seal]} socket"
+    name = f"{t} {pname} {from_gender} to {elabel} {end['size']} ({estd}) {to_gender}"
     ratings = [e["working_bar"] for e in prow if e["working_bar"] is not None]
     bores = [e["bore_mm"] for e in prow if e["bore_mm"] is not None]
-    p_bar = min(ratings) if ratings else None
-    p_bore = min(bores) if bores else None
-    working = min(x for x in (p_bar, end["working_bar"]) if x is not None) if (p_bar or end["working_bar"]) else None
-    if p_bar is None:
-        working = None  # the port-side end has no rating in the tables: do not guess
-    bore = min(x for x in (p_bore, end["bore_mm"]) if x is not None)
-    weak = end
-    if prow and p_bar is not None and end["working_bar"] is not None and p_bar < end["working_bar"]:
-        weak = min(prow, key=lambda e: e["working_bar"])
+    bore = min(bores + [end["bore_mm"]])
+    if ratings and end["working_bar"] is not None:
+        working = min(ratings + [end["working_bar"]])
+        weak = end if end["working_bar"] <= min(ratings) else min(prow, key=lambda e: e["working_bar"])
+        family, dash = weak["family"], weak["dash"]
+    else:
+        # the port-side end has no rating in the tables: do not guess, and do not let a
+        # family table stand in for it
+        working, family, dash = None, None, None
     sources = sorted({e["rating_source"] for e in prow + [end]})
     adapter = {
         "name": name,
@@ -700,18 +716,47 @@ def _one_adapter(th: dict, seal: str, pgender: str, prow: list, end: dict, note:
         "to": {"family": efam, "size": end["size"], "thread": end["thread"], "seal": end["seal"],
                "gender": to_gender},
         "working_bar": working, "bore_mm": bore,
-        "family": weak["family"], "dash": weak["dash"],
+        "family": family, "dash": dash,
         "source": "; ".join(sources),
     }
     msg = f"One adapter: {name}."
     if working is None:
-        msg += (" The tables hold no rating for a " f"{SEAL_WORDS[seal]} end in {t}: take the adapter's working "
-                "pressure from the maker's data.")
+        msg += (f" The tables hold no rating for the port-side end ({SEAL_WORDS[seal]}, {t}): take the "
+                "adapter's working pressure from the maker's data.")
     else:
         msg += f" Rated about {working:g} bar (typical, check the maker's data)."
     if len({e['family'] for e in prow}) > 1:
         msg += " More than one end family uses this port thread; the lower rating and smaller bore are used."
     return {"ok": True, "adapters": [adapter], "message": msg + note}
+
+
+def plan_for_port(port: dict) -> dict | None:
+    """Plan the adapters for a job-model port record (``calc.model.PORT``).
+
+    Parameters
+    ----------
+    port : dict
+        A normalised port record: ``thread``, ``seal``, ``line_end_family`` and
+        one of ``line_end_dash``, ``line_end_tube_od_mm``, ``line_end_thread``.
+
+    Returns
+    -------
+    dict or None
+        The :func:`plan_adapters` result, or ``None`` when the record names no
+        line end (nothing to plan).
+
+    Examples
+    --------
+    >>> plan_for_port({"label": "gear inlet", "thread": "M16x1.5", "seal": "metric-oring",
+    ...                "line_end_family": "metric-oring-port", "line_end_dash": None,
+    ...                "line_end_tube_od_mm": None, "line_end_thread": "M16x1.5"})["adapters"]
+    []
+    """
+    if not port or port.get("line_end_family") is None:
+        return None
+    end = {"family": port["line_end_family"], "dash": port.get("line_end_dash"),
+           "tube_od_mm": port.get("line_end_tube_od_mm"), "thread": port.get("line_end_thread")}
+    return plan_adapters({"thread": port.get("thread"), "seal": port.get("seal")}, end)
 
 
 def adapter_parts(plan: dict) -> list[dict]:
