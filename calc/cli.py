@@ -39,9 +39,44 @@ def _cmd_evaluate(args) -> int:
 
 def _cmd_describe(args) -> int:
     from .model import describe_job
-    json.dump(describe_job(), sys.stdout, indent=1)
-    print()
+    if args.markdown:
+        print(model_markdown(describe_job()))
+    else:
+        json.dump(describe_job(), sys.stdout, indent=1)
+        print()
     return 0
+
+
+def model_markdown(model: dict) -> str:
+    """The job model as a Markdown field reference (read from the one declaration)."""
+    from .units import label
+    rows = ["| path | label | unit | default | limits | help |", "|---|---|---|---|---|---|"]
+
+    def limits(f):
+        parts = [f"> {f['gt']:g}" if "gt" in f else "", f">= {f['ge']:g}" if "ge" in f else "",
+                 f"< {f['lt']:g}" if "lt" in f else "", f"<= {f['le']:g}" if "le" in f else ""]
+        if f.get("choices"):
+            parts.append(" / ".join(f"`{c}`" for c in f["choices"]))
+        return ", ".join(p for p in parts if p)
+
+    def walk(node, path):
+        kind = node["kind"]
+        if kind == "record":
+            for f in node["fields"]:
+                walk(f, f"{path}.{f['key']}" if path else f["key"])
+        elif kind == "list":
+            walk(node["item"], f"{path}[]")
+        elif kind == "variants":
+            for tag, rec in node["variants"].items():
+                rows.append(f"| {path} ({node['tag']} = `{tag}`) | {rec['label']} | | | | |")
+                walk(rec, path)
+        else:
+            default = "required" if node["required"] else ("" if node["default"] is None else
+                                                           f"`{json.dumps(node['default'])}`")
+            rows.append(f"| `{path}` | {node['label']} | {label(node['unit']) if node['unit'] else ''} | "
+                        f"{default} | {limits(node)} | {node['help']} |")
+    walk(model["job"], "")
+    return "\n".join(rows)
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -57,6 +92,7 @@ def main(argv: list[str] | None = None) -> int:
     ev.add_argument("--units", choices=("metric", "us"), default="metric", help="units of the text report")
     ev.set_defaults(func=_cmd_evaluate)
     de = sub.add_parser("describe", help="print the job model (every field with unit, default, limits)")
+    de.add_argument("--markdown", action="store_true", help="print a Markdown field reference")
     de.set_defaults(func=_cmd_describe)
     sub.add_parser("thread", help="identify a thread: thread MAJOR PITCH [--male|--female] [--tapered] [--json]")
     try:

@@ -196,3 +196,12 @@ def test_method_validity_warnings():
     res = evaluate(job)
     paths = {w["path"] for w in res["warnings"]}
     assert "lines[0].parts[0].roughness_mm" in paths and "lines[0].parts[0].bends[0].radius_mm" in paths
+
+
+def test_markdown_field_reference_lists_every_scalar_field():
+    # Source: design rule (docs read the one declaration): every field path appears once.
+    from calc.cli import model_markdown
+    md = model_markdown(describe_job())
+    for path in ("`pump.relief_bar`", "`lines[].parts[].bore_mm`", "`conditions[].fluid_temp_c`",
+                 "`thermal.air_temp_c`"):
+        assert path in md
