@@ -1,5 +1,7 @@
 // Linesmith engine worker: boots Pyodide, installs the wheels shipped beside
-// the page and answers requests through calc.api.handle(json) -> json.
+// the page (fetched in parallel with the boot, unpacked into site-packages:
+// they are pure-Python wheels) and answers requests through
+// calc.api.handle(json) -> json.
 // Every message in either direction is a JSON string:
 //   page -> worker  {"type": "init", "pyodide": "./pyodide/", "wheels": [...]}
 //                   {"type": "call", "id": N, "request": "<request JSON>"}
@@ -23,17 +25,26 @@ function absolute(relative) {
   return new URL(relative, self.location.href).href;
 }
 
+async function fetchWheel(url) {
+  const response = await fetch(url);
+  if (!response.ok) throw new Error(`${url} answered ${response.status}`);
+  return response.arrayBuffer();
+}
+
 async function boot(config) {
   const t0 = performance.now();
   progress(5, "Loading the Python runtime (about 13 MB on first visit)…");
+  // The wheels download while the runtime boots; they are unpacked afterwards.
+  const wheels = Promise.all(config.wheels.map((w) => fetchWheel(absolute(w))));
+  wheels.catch(() => {}); // reported below, once the runtime is up
   const pyodide = await loadPyodide({ indexURL: absolute(config.pyodide) });
   const tCore = performance.now();
   progress(70, "Installing the engine and its libraries…");
-  // By URL: all wheels are fetched in parallel and installed without any index.
-  await pyodide.loadPackage(config.wheels.map(absolute), {
-    messageCallback: () => {},
-    errorCallback: (text) => console.warn(text),
-  });
+  const sitePackages = pyodide.pyimport("site").getsitepackages()[0];
+  for (const buffer of await wheels) {
+    pyodide.unpackArchive(buffer, "wheel", { extractDir: sitePackages });
+  }
+  pyodide.pyimport("importlib").invalidate_caches();
   const tWheels = performance.now();
   progress(85, "Starting the engine…");
   const api = pyodide.pyimport("calc.api");
