@@ -79,7 +79,7 @@ TOLERANCE = {
     "female_under_mm": 0.10, "female_over_mm": 0.40,
     "pitch_percent": 1.0,
     "taper_widening": "gauge length / 16 on both sides (tapered threads only)",
-    "source": "common practice, no source (allowances from ASME B1.1 2A/2B and ISO 965-1 6g/6H, from memory)",
+    "source": "common practice, no source; allowances after ASME B1.1 class 2A/2B and ISO 965-1 6g/6H (from memory)",
 }
 
 #: The end families known to the adapter planner, with label, standard and gender.

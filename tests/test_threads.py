@@ -372,6 +372,11 @@ def test_adapter_parts_are_valid_fitting_parts():
                                           {"family": "orb", "dash": 4}))
 
 
+def test_job_model_port_offers_the_planner_end_families():
+    field = [f for f in model.PORT.fields if f.key == "line_end_family"][0]
+    assert set(field.choices) == set(th.END_FAMILIES)
+
+
 def test_plan_for_port_reads_a_job_port_record():
     port, problems, _ = validate(model.PORT, {"thread": "M16x1.5", "seal": "metric-oring",
                                                "line_end_family": "jic-37", "line_end_dash": 6})
