@@ -16,6 +16,10 @@ __all__ = ["PRESETS", "walther_coefficients", "viscosity_cst", "density_kg_m3", 
            "state"]
 
 T0 = 273.15
+#: Lowest viscosity ASTM D341 covers (0.21 cSt, from memory of D341-20); results are held there.
+NU_MIN_CST = 0.21
+#: Highest viscosity the engine accepts at an operating point, cSt (a fluid that no longer flows).
+NU_MAX_CST = 1.0e6
 
 #: Generic fluids. Every value is typical of the class, from memory, not a
 #: product's data: use the fluid maker's datasheet for a real job.
@@ -109,7 +113,9 @@ def viscosity_cst(A: float, B: float, t_k: float) -> float:
     """Kinematic viscosity [cSt] at ``t_k`` [K] from the Walther constants.
 
     Valid within the liquid range of the fluid; ASTM D341 states the line is
-    good from the cloud point to the initial boiling point. Extrapolating far
+    good from the cloud point to the initial boiling point, and down to
+    0.21 cSt (results are held at that floor). Raises ``ValueError`` where the
+    line would give a viscosity beyond any flowing liquid. Extrapolating far
     below the lower datasheet point (cold start) is the usual practice and
     is what the standard's chart is for, but it is an estimate.
 
@@ -119,8 +125,12 @@ def viscosity_cst(A: float, B: float, t_k: float) -> float:
     >>> round(viscosity_cst(A, B, 313.15), 6)
     32.0
     """
-    z = 10.0 ** (10.0 ** (A - B * math.log10(t_k)))
-    return _nu_from_z(z) if z < 3.0 else z - 0.7
+    inner = A - B * math.log10(t_k)
+    if inner > 2.3:  # Z above 1e199: no liquid of this kind; refuse rather than overflow
+        raise ValueError("viscosity beyond any flowing liquid at this temperature")
+    z = 10.0 ** (10.0 ** inner)
+    nu = _nu_from_z(z) if z < 3.0 else z - 0.7
+    return max(nu, NU_MIN_CST)
 
 
 def density_kg_m3(rho15_kg_m3: float, beta_per_k: float, t_c: float) -> float:

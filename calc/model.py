@@ -24,6 +24,8 @@ steady-temperature estimate, to be replaced by the user's own.
 """
 from __future__ import annotations
 
+import math
+
 from .schema import REQUIRED, Field, ListOf, Record, Variants, validate, Problem
 
 JOB_VERSION = 1
@@ -219,9 +221,9 @@ FLUID = Record("fluid", "Fluid", (
     Field("preset", "Fluid", "choice", default=None, choices=FLUID_PRESETS + ("custom",),
           help="A generic fluid from the presets, or 'custom' to give its datasheet values."),
     _name,
-    Field("visc_40c_cst", "Viscosity at 40 C", unit="viscosity_cst", default=None, gt=0, le=10000,
+    Field("visc_40c_cst", "Viscosity at 40 C", unit="viscosity_cst", default=None, ge=2, le=10000,
           help="Kinematic viscosity at 40 C from the datasheet."),
-    Field("visc_100c_cst", "Viscosity at 100 C", unit="viscosity_cst", default=None, gt=0, le=1000,
+    Field("visc_100c_cst", "Viscosity at 100 C", unit="viscosity_cst", default=None, ge=1, le=1000,
           help="Kinematic viscosity at 100 C from the datasheet; must be lower than at 40 C."),
     Field("density_15c_kg_m3", "Density at 15 C", unit="density_kg_m3", default=None, gt=500, le=1500),
     Field("specific_heat_j_kgk", "Specific heat", unit="specific_heat_j_kgk", default=None, gt=500, le=5000),
@@ -282,6 +284,12 @@ COOLER = Record("cooler", "Cooler", (
     Field("fins_per_inch", "Fins per inch", unit="count", default=0.0, ge=0, le=40,
           help="0 for plain tube."),
     Field("fin_od_mm", "Fin outside diameter", unit="length_mm", default=None, gt=0, le=200),
+    Field("fin_thickness_mm", "Fin thickness", unit="length_mm", default=0.4, gt=0, le=5,
+          help="0.3-0.5 mm is typical of wound or pressed aluminium fins (from memory)."),
+    Field("fin_conductivity_w_mk", "Fin conductivity", unit="conductivity_w_mk", default=200.0, gt=0,
+          le=500, help="About 200 W/(m K) for aluminium (from memory)."),
+    Field("tube_conductivity_w_mk", "Cooler tube wall conductivity", unit="conductivity_w_mk", default=50.0,
+          gt=0, le=500, help="About 50 W/(m K) for low-carbon steel, 160-200 for aluminium (from memory)."),
     Field("air_speed_m_s", "Air speed through the cooler", unit="speed_m_s", default=None, ge=0, le=60,
           help="Leave empty to use each condition's air speed."),
 ), default={})
@@ -361,6 +369,16 @@ def _cross_checks(job: dict, problems: list, warnings: list) -> None:
             problems.append(Problem("fluid.visc_100c_cst", "must be lower than the viscosity at 40 C"))
     if not problems:
         job["fluid"] = _fluid.resolve(fl)
+        for i, c in enumerate(job["conditions"]):
+            try:
+                nu = _fluid.state(job["fluid"], c["fluid_temp_c"]).nu_m2_s * 1e6
+            except ValueError:
+                nu = math.inf
+            if nu > _fluid.NU_MAX_CST:
+                problems.append(Problem(f"conditions[{i}].fluid_temp_c",
+                                        f"the fluid's viscosity at {c['fluid_temp_c']:g} C would be above "
+                                        f"{_fluid.NU_MAX_CST:,.0f} cSt: it would not flow (check the "
+                                        "fluid's datasheet values)"))
     if sum(1 for ln in job["lines"] if ln["role"] == "pressure") == 0:
         warnings.append(Problem("lines", "no pressure line listed: the circuit pressure at neutral is "
                                          "only the gear and return losses"))
@@ -393,3 +411,13 @@ def _cross_checks(job: dict, problems: list, warnings: list) -> None:
         problems.append(Problem("thermal.cooler.tube_length_m", "is missing (the cooler type is 'tube')"))
     if cooler["type"] == "tube" and cooler["tube_wall_mm"] * 2 >= cooler["tube_od_mm"]:
         problems.append(Problem("thermal.cooler.tube_wall_mm", "must be less than half the outside diameter"))
+    if cooler["fins_per_inch"] > 0:
+        if cooler["fin_od_mm"] is None:
+            problems.append(Problem("thermal.cooler.fin_od_mm", "is missing (fins_per_inch is more than 0)"))
+        elif cooler["fin_od_mm"] <= cooler["tube_od_mm"]:
+            problems.append(Problem("thermal.cooler.fin_od_mm", "must be larger than the tube outside "
+                                                                "diameter"))
+        if cooler["fin_thickness_mm"] * cooler["fins_per_inch"] >= 25.4:
+            problems.append(Problem("thermal.cooler.fin_thickness_mm", "the fins would fill the tube: fin "
+                                                                       "thickness x fins per inch must be "
+                                                                       "under 25.4 mm"))
