@@ -298,6 +298,9 @@ def evaluate(job) -> dict:
         return {"ok": False, "errors": [p.as_dict() for p in problems],
                 "warnings": [w.as_dict() for w in warnings]}
     # -- stage: part data (calc.ratings.prepare fills hose bores and ratings from the tables) --
+    from . import ratings
+    if problems := ratings.prepare(norm):
+        return {"ok": False, "errors": [p.as_dict() for p in problems], "warnings": [w.as_dict() for w in warnings]}
     circuit = Circuit(norm)
     conditions = [circuit.operating_point(c) for c in norm["conditions"]]
     checks = hydraulic_checks(circuit, conditions)
@@ -305,6 +308,7 @@ def evaluate(job) -> dict:
     lines = [{"index": ln["index"], "name": ln["name"], "role": ln["role"], "checks": checks[ln["index"]]}
              for ln in circuit.lines]
     # -- stage: ratings (calc.ratings.assess adds lines[j].rating, checks and candidates) --
+    warnings.extend(ratings.assess(circuit, conditions, lines, norm))
     # -- stage: thermal (calc.thermal.assess adds conditions[i].heat_w and result["thermal"]) --
     for c in conditions:
         if c["relief_open"] and not c["full_lock"]:
