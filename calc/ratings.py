@@ -530,6 +530,7 @@ def assess(circuit, conditions: list[dict], lines: list[dict], job: dict) -> lis
                              if weakest else None),
             "unrated_parts": [r["index"] for r in prs if r["working_bar"] is None],
             "temp_max_c": t_max, "temp_min_c": t_min, "pressure_min_bar": lo,
+            "dp_budget_bar": jl.get("dp_budget_bar"),
             "parts": prs, "route": route,
         }
         checks = out["checks"]

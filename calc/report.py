@@ -19,6 +19,44 @@ def _u(v, kind, units, fmt="{:.2f}"):
     return fmt.format(to_display(v, kind, units))
 
 
+def _rating_lines(ln: dict, units: str) -> list[str]:
+    """The rating of one line: assembly working and burst, margin, weakest part."""
+    r, P = ln["rating"], label("pressure_bar", units)
+
+    def p(v):
+        return "unknown" if v is None else f"{_u(v, 'pressure_bar', units, '{:.0f}')} {P}"
+    out = [f"    rating: working {p(r['working_bar'])}, burst {p(r['burst_bar'])}, must hold "
+           f"{_u(r['required_bar'], 'pressure_bar', units, '{:.1f}')} {P} ({r['required_basis']})"]
+    wp = r["weakest_part"]
+    margin = "unknown" if r["margin"] is None else f"{r['margin']:.2f}"
+    burst = "unknown" if r["burst_margin"] is None else f"{r['burst_margin']:.1f}:1"
+    out.append(f"    margin {margin} (working / required), burst margin {burst} against "
+               f"{r['design_factor']:g}:1; weakest part: "
+               + (f"{wp['index']} {wp['description']}" if wp else "none rated")
+               + (f"; unrated parts: {', '.join(map(str, r['unrated_parts']))}" if r["unrated_parts"] else ""))
+    return out
+
+
+def _candidate_lines(ln: dict, units: str, show: int = 5) -> list[str]:
+    """Ranked hose candidates of one line: the passing ones, then why the first rejected ones fail."""
+    cands = ln["candidates"]
+    ok = [c for c in cands if c["verdict"] != "fail"]
+    bad = [c for c in cands if c["verdict"] == "fail"]
+    V, P = label("speed_m_s", units), label("pressure_bar", units)
+    out = [f"    hose candidates: {len(ok)} pass, {len(bad)} rejected (smallest, then lightest first)"
+           + ("" if ln["rating"].get("dp_budget_bar") is not None else
+              "; no pressure-drop budget set (dp_budget_bar), so the drop does not limit the size")]
+    for c in ok[:show]:
+        out.append(f"      {c['verdict']:<7} {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): v "
+                   f"{_u(c['velocity_max_m_s'], 'speed_m_s', units)} {V}, drop "
+                   f"{_u(c['pressure_drop_bar'], 'pressure_bar', units)} {P}"
+                   + (f"; {'; '.join(c['reasons'])}" if c["reasons"] else ""))
+    for c in bad[:max(0, show - len(ok[:show])) or 2]:
+        out.append(f"      fail    {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): {', '.join(c['failed'])}: "
+                   + "; ".join(c["reasons"]))
+    return out
+
+
 def text_report(res: dict, units: str = "metric") -> str:
     """Format an ``evaluate`` result as plain text tables.
 
@@ -62,8 +100,11 @@ def text_report(res: dict, units: str = "metric") -> str:
         out.append(f"  {ln['name']} ({ln['role']})")
         if "rating" in ln:
             rated = True
+            out.extend(_rating_lines(ln, units))
         for ch in ln["checks"]:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+        if ln.get("candidates"):
+            out.extend(_candidate_lines(ln, units))
     if res.get("warnings"):
         out.append("")
         out.append("Warnings")
