@@ -310,6 +310,8 @@ def evaluate(job) -> dict:
     # -- stage: ratings (calc.ratings.assess adds lines[j].rating, checks and candidates) --
     warnings.extend(ratings.assess(circuit, conditions, lines, norm))
     # -- stage: thermal (calc.thermal.assess adds conditions[i].heat_w and result["thermal"]) --
+    from . import thermal
+    thermal_section = thermal.assess(circuit, conditions)  # goes into result["thermal"]
     for c in conditions:
         if c["relief_open"] and not c["full_lock"]:
             warnings.append(Problem("conditions", f"at '{c['name']}' the circuit drop at neutral reaches the "
