@@ -57,6 +57,44 @@ def _candidate_lines(ln: dict, units: str, show: int = 5) -> list[str]:
     return out
 
 
+def _thermal_lines(th: dict, units: str) -> list[str]:
+    """The fluid-temperature section (calc.thermal)."""
+    T, W, K = label("temp_c", units), label("power_w", units), label("conductance_w_k", units)
+
+    def temp(v):
+        return "n/a" if v is None else f"{_u(v, 'temp_c', units, '{:.1f}')} {T}"
+
+    out = ["", f"Fluid temperature: [{th['verdict']}] {th['message']}",
+           f"  air {temp(th['air_temp_c'])}, fluid limit {temp(th['limit_c'])}, target {temp(th['target_c'])}"]
+    st = th.get("steady", {})
+    if th.get("steady_temp_c") is not None:
+        out.append(f"  steady temperature {temp(th['steady_temp_c'])} (heat "
+                   f"{_u(th.get('steady_heat_w', 0.0), 'power_w', units, '{:.0f}')} {W} duty-weighted; "
+                   f"{st.get('iterations', 0)} evaluations)")
+    else:
+        out.append(f"  steady temperature: {st.get('message', 'not found')}")
+    for d in th.get("steady_duty", []):
+        out.append(f"    {d['name']:<22} {d['duty_percent']:5.1f} %  heat {_u(d['heat_w'], 'power_w', units, '{:7.0f}')} "
+                   f"{W}  rejected {_u(d['heat_rejected_w'], 'power_w', units, '{:7.0f}')} {W} "
+                   f"(lines {_u(d['lines_w'], 'power_w', units, '{:.0f}')}, reservoir "
+                   f"{_u(d['reservoir_w'], 'power_w', units, '{:.0f}')}, cooler "
+                   f"{_u(d['cooler_w'], 'power_w', units, '{:.0f}')})")
+    fl = th.get("full_lock", {})
+    out.append(f"  full-lock hold from {temp(fl.get('start_temp_c'))}: {fl.get('message', '')}")
+    curve = th.get("full_lock_curve") or []
+    if curve:
+        step = max(1, len(curve) // 5)
+        out.append("    " + ", ".join(f"{p['t_s']:.0f} s {_u(p['temp_c'], 'temp_c', units, '{:.0f}')}"
+                                      for p in curve[::step]) + f" {T}"
+                   + (f" ({fl['curve_note']})" if fl.get("curve_note") else ""))
+    need = th.get("cooler_needed_w_per_k")
+    out.append("  cooler: " + th.get("cooler_message", "")
+               + (f" [{_u(need, 'conductance_w_k', units, '{:.1f}')} {K}]" if need else ""))
+    for ch in th.get("checks", []):
+        out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+    return out
+
+
 def text_report(res: dict, units: str = "metric") -> str:
     """Format an ``evaluate`` result as plain text tables.
 
@@ -82,7 +120,9 @@ def text_report(res: dict, units: str = "metric") -> str:
                    f"pump inlet {_u(c['pump_inlet_bar'], 'pressure_bar', units, '{:.3f}')} {P}"
                    + ("" if c.get("has_feed_line", True) else " (no feed line listed)"))
         if "heat_w" in c:
-            out.append(f"   heat generated {_u(c['heat_w'], 'power_w', units, '{:.0f}')} {label('power_w', units)}")
+            out.append(f"   heat generated {_u(c['heat_w'], 'power_w', units, '{:.0f}')} {label('power_w', units)}"
+                       + (f", rejected {_u(c['heat_rejected_w'], 'power_w', units, '{:.0f}')} "
+                          f"{label('power_w', units)} at this temperature" if "heat_rejected_w" in c else ""))
         for ln in c["lines"]:
             out.append(f"   -- {ln['name']} ({ln['role']}): flow {_u(ln['flow_lpm'], 'flow_lpm', units)} {Q}, "
                        f"drop {_u(ln['pressure_drop_bar'], 'pressure_bar', units, '{:.3f}')} {P}, "
@@ -105,6 +145,8 @@ def text_report(res: dict, units: str = "metric") -> str:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
         if ln.get("candidates"):
             out.extend(_candidate_lines(ln, units))
+    if res.get("thermal"):
+        out.extend(_thermal_lines(res["thermal"], units))
     if res.get("warnings"):
         out.append("")
         out.append("Warnings")
