@@ -60,6 +60,8 @@ TEMP_CAUTION_K = 10.0
 #: Below this gauge pressure a line's pressure rating is not checked against a required figure, bar
 #: (a stated choice: feed and drain lines that stay near atmospheric).
 LOW_PRESSURE_BAR = 1.0
+#: Relative slack in the design-factor check for the rounding of tabulated bar figures (0.5 %).
+_TABLE_ROUNDING = 0.005
 _PRESSURE_PARTS = ("hose", "tube", "fitting", "device")
 _CACHE: dict = {}
 
@@ -395,7 +397,7 @@ def part_ratings(parts: list[dict], rset: dict, t_max_c: float, t_min_c: float) 
                 w *= factor
             if b is not None:
                 b *= factor
-            if w is not None and b is not None and b < hdf * w * (1 - 1e-9):
+            if w is not None and b is not None and b < hdf * w * (1.0 - _TABLE_ROUNDING):
                 r["notes"].append(f"burst {b:.0f} bar is under {hdf:g} x the working {w:.0f} bar: working taken "
                                   f"as burst / {hdf:g} = {b / hdf:.0f} bar (design factor, SAE J517)")
                 w = b / hdf
@@ -603,8 +605,8 @@ def _temperature_checks(prs, t_max, t_max_at, t_min) -> list:
             fails.append(f"part {r['index']} ({r['description']}) is limited to {lim:g} C, the fluid reaches "
                          f"{t_max:g} C at '{t_max_at}'")
         elif t_max > lim - TEMP_CAUTION_K:
-            cautions.append(f"part {r['index']} ({r['description']}) limit {lim:g} C is within "
-                            f"{TEMP_CAUTION_K:g} K of the fluid's {t_max:g} C")
+            cautions.append(f"the fluid's {t_max:g} C ('{t_max_at}') is within {TEMP_CAUTION_K:g} K of the "
+                            f"{lim:g} C limit of part {r['index']} ({r['description']})")
         lo = r["min_temp_c"]
         if lo is not None and t_min < lo:
             fails.append(f"part {r['index']} ({r['description']}) is rated down to {lo:g} C only, the fluid "
