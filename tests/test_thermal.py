@@ -1,0 +1,420 @@
+"""Thermal stage checks against common-practice formulas, published correlations written out
+independently, exact solutions of the lumped model, and properties."""
+import copy
+import math
+import subprocess
+import sys
+
+import pytest
+from hypothesis import given, settings, strategies as st
+
+from calc import evaluate, thermal
+from calc.engine import Circuit
+from calc.fluid import state as fluid_state
+from calc.model import validate_job
+
+from .jobs import demo_job, simple_job
+
+LPM = 1 / 60000
+BAR = 1e5
+PSI = 6894.757293168361  # Pa; exact by definition of the pound-force and inch (NIST SP 811)
+GPM = 3.785411784 / 60000  # m^3/s per US gpm; exact (NIST SP 811)
+HP = 745.69987158227  # W per mechanical horsepower (550 ft lbf/s), exact by definition
+
+
+def run(job):
+    """Validate, compile, solve and run the thermal stage; returns (thermal, conditions)."""
+    norm, problems, _ = validate_job(copy.deepcopy(job))
+    assert not problems, [str(p) for p in problems]
+    from calc import ratings
+    assert not ratings.prepare(norm)
+    circuit = Circuit(norm)
+    ops = [circuit.operating_point(c) for c in norm["conditions"]]
+    return thermal.assess(circuit, ops), ops
+
+
+def lock_job(flow_lpm=7.5, relief_bar=85.0, **thermal_settings):
+    job = simple_job(flow_lpm=flow_lpm, relief_bar=relief_bar)
+    job["conditions"] = [
+        {"name": "cruise", "engine_rpm": 2000, "fluid_temp_c": 80, "duty_percent": 95, "air_speed_m_s": 3},
+        {"name": "lock", "engine_rpm": 1000, "fluid_temp_c": 80, "full_lock": True, "duty_percent": 5},
+    ]
+    job["thermal"] = thermal_settings
+    return job
+
+
+# -- 1. temperature rise dT = dp / (rho cp) ----------------------------------------------
+def test_temp_rise_matches_rule_of_thumb_and_energy_balance():
+    job = simple_job()
+    job["lines"][1]["parts"].insert(1, {"kind": "device", "dp_bar": 10.0, "at_flow_lpm": 7.5})
+    job["conditions"] = [{"name": "warm", "engine_rpm": 2000, "fluid_temp_c": 15.0}]
+    r = evaluate(job)
+    assert r["ok"]
+    c = r["conditions"][0]
+    assert c["circuit_flow_lpm"] == pytest.approx(7.5)
+    dev = c["lines"][1]["parts"][1]
+    assert dev["pressure_drop_bar"] == pytest.approx(10.0, rel=1e-12)
+    s = fluid_state(r["fluid"] | {"walther_a": 0, "walther_b": 0, "expansion_per_k": 0.0007,
+                                  "conductivity_w_mk": 0.13}, 15.0)
+    # Source: first law for adiabatic throttling of a liquid, dT = dp / (rho cp) (exact for the model).
+    assert dev["temp_rise_c"] == pytest.approx(10 * BAR / (s.rho_kg_m3 * s.cp_j_kgk), rel=1e-9)
+    # Source: common practice, no source: about 0.57 K per 10 bar for mineral oil (a rule of thumb, 10 %).
+    assert dev["temp_rise_c"] == pytest.approx(0.57, rel=0.10)
+    ln = c["lines"][1]  # a level line: the whole drop is dissipated
+    # Source: dT = dp / (rho cp) over the line (exact for the model).
+    assert ln["temp_rise_c"] == pytest.approx(ln["pressure_drop_bar"] * BAR / (s.rho_kg_m3 * s.cp_j_kgk),
+                                              rel=1e-9)
+    # Source: dT = dp / (rho cp), exact; 0.57 K per 10 bar (common practice, no source).
+    assert thermal.temp_rise_c(10 * BAR, 870.0, 1900.0) == pytest.approx(0.57, rel=0.10)
+    assert thermal.temp_rise_c(-1.0, 870.0, 1900.0) == 0.0
+
+
+# -- 2. heat generated -----------------------------------------------------------------
+def test_heat_at_relief_vs_pq_and_1714_formula():
+    th, ops = run(lock_job(flow_lpm=7.5, relief_bar=85.0))
+    lock = ops[1]
+    q, p = 7.5 * LPM, 85.0 * BAR
+    # Source: hydraulic power P = p Q (exact; the whole delivered flow crosses the relief).
+    assert lock["heat_w"] == pytest.approx(p * q, rel=1e-12)
+    # Source: hp = psi x gpm / 1714 (common practice; 1714 rounds 1714.25).
+    hp = (p / PSI) * (q / GPM) / 1714.0
+    assert lock["heat_w"] == pytest.approx(hp * HP, rel=1e-3)
+    # Source: heat [BTU/h] ~ 1.5 x psi x gpm (common practice, approximate: 2544.4/1714 = 1.484).
+    assert lock["heat_w"] * 3.412141633 == pytest.approx(1.5 * (p / PSI) * (q / GPM), rel=0.02)
+    # Source: field notes (common practice): about 1 kW for 80 bar and 8 L/min.
+    assert thermal.hydraulic_heat_w(0.0, 0.0, 8 * LPM, 80 * BAR) == pytest.approx(1000, rel=0.1)
+
+
+def test_heat_at_neutral_is_flow_times_outlet_pressure_and_pump_losses():
+    job = lock_job()
+    job["pump"]["overall_efficiency"] = 0.8
+    th, ops = run(job)
+    cruise, lock = ops
+    q, p = cruise["circuit_flow_lpm"] * LPM, cruise["pump_outlet_bar"] * BAR
+    # Source: P = p Q at the pump outlet, no feed line listed (exact for the model).
+    assert cruise["heat_hydraulic_w"] == pytest.approx(p * q, rel=1e-12)
+    # Source: shaft power = hydraulic power / overall efficiency (definition of overall efficiency).
+    assert cruise["heat_w"] == pytest.approx(p * q / 0.8, rel=1e-12)
+    assert lock["heat_w"] == pytest.approx(85 * BAR * 7.5 * LPM / 0.8, rel=1e-12)
+
+
+def test_heat_with_relief_open_at_neutral_is_pump_flow_times_relief():
+    job = simple_job(relief_bar=20.0)
+    job["conditions"] = [{"name": "frozen", "engine_rpm": 2000, "fluid_temp_c": -35.0}]
+    th, ops = run(job)
+    c = ops[0]
+    assert c["relief_open"] and c["relief_flow_lpm"] > 0
+    # Source: energy balance, both the circuit and the relief stand at the relief pressure: P = p_relief Q_pump.
+    assert c["heat_w"] == pytest.approx(20 * BAR * c["pump_flow_lpm"] * LPM, rel=1e-6)
+
+
+# -- 3. convection -------------------------------------------------------------------
+# Air at 1 atm, Incropera (Bergman et al., Fundamentals of Heat and Mass Transfer) Table A.4 (from memory):
+# T [K]: (rho kg/m3, mu Pa s, k W/(m K), Pr)
+AIR_TABLE = {300.0: (1.1614, 184.6e-7, 0.0263, 0.707), 350.0: (0.9950, 208.2e-7, 0.0300, 0.700),
+             400.0: (0.8711, 230.1e-7, 0.0338, 0.690)}
+
+
+@pytest.mark.parametrize("tk", sorted(AIR_TABLE))
+def test_air_properties_vs_handbook_table(tk):
+    rho, mu, k, cp, pr = thermal.air_properties(tk - 273.15)
+    r_rho, r_mu, r_k, r_pr = AIR_TABLE[tk]
+    # Source: Incropera Table A.4 (from memory); the 1976 atmosphere's Sutherland and k fits differ a little,
+    # and the table's densities sit about 1.3 % under the ideal-gas value at 1 atm.
+    assert rho == pytest.approx(r_rho, rel=0.02)
+    assert mu == pytest.approx(r_mu, rel=0.01)
+    assert k == pytest.approx(r_k, rel=0.03)
+    assert pr == pytest.approx(r_pr, rel=0.02)
+
+
+def _churchill_chu(ra, pr):
+    # Churchill and Chu (1975), horizontal cylinder, written out here independently of ht.
+    return (0.6 + 0.387 * ra ** (1 / 6) / (1 + (0.559 / pr) ** (9 / 16)) ** (8 / 27)) ** 2
+
+
+def _churchill_bernstein(re, pr):
+    # Churchill and Bernstein (1977), cylinder in cross flow, written out here independently of ht.
+    return 0.3 + 0.62 * re ** 0.5 * pr ** (1 / 3) / (1 + (0.4 / pr) ** (2 / 3)) ** 0.25 * \
+        (1 + (re / 282000) ** (5 / 8)) ** (4 / 5)
+
+
+@pytest.mark.parametrize("d_m,ts_c,ta_c", [(0.019, 103.7, 50.0), (0.0095, 96.85, 56.85), (0.03, 126.85, 26.85)])
+def test_natural_convection_vs_churchill_chu_written_out(d_m, ts_c, ta_c):
+    tf_k = 0.5 * (ts_c + ta_c) + 273.15
+    rho, mu, k, pr = AIR_TABLE[min(AIR_TABLE, key=lambda t: abs(t - tf_k))]
+    assert abs(min(AIR_TABLE, key=lambda t: abs(t - tf_k)) - tf_k) < 1.0
+    nu = mu / rho
+    ra = 9.80665 * (ts_c - ta_c) / tf_k * d_m ** 3 / nu ** 2 * pr
+    h_ref = _churchill_chu(ra, pr) * k / d_m
+    # Source: Churchill-Chu (1975) written out, air properties from Incropera Table A.4 (from memory).
+    assert thermal.h_natural_cylinder(d_m, ts_c, ta_c) == pytest.approx(h_ref, rel=0.03)
+
+
+@pytest.mark.parametrize("d_m,v", [(0.019, 1.0), (0.0095, 5.0), (0.025, 15.0)])
+def test_forced_convection_vs_churchill_bernstein_written_out(d_m, v):
+    ts_c, ta_c = 126.85, 26.85  # film 350 K
+    rho, mu, k, pr = AIR_TABLE[350.0]
+    re = rho * v * d_m / mu
+    h_ref = _churchill_bernstein(re, pr) * k / d_m
+    # Source: Churchill-Bernstein (1977) written out, air properties from Incropera Table A.4 (from memory).
+    assert thermal.h_forced_cylinder(d_m, v, ts_c, ta_c) == pytest.approx(h_ref, rel=0.03)
+    hn = thermal.h_natural_cylinder(d_m, ts_c, ta_c)
+    hf = thermal.h_forced_cylinder(d_m, v, ts_c, ta_c)
+    # Source: Churchill (1977) combination with n = 3, exact.
+    assert thermal.h_outside_cylinder(d_m, v, ts_c, ta_c) == pytest.approx((hn ** 3 + hf ** 3) ** (1 / 3), rel=1e-12)
+
+
+def test_series_resistances_of_a_hose_wall():
+    d_i, d_o, k_wall, h_i = 0.0095, 0.0187, 0.25, 50.0
+    ua, ts = thermal.cylinder_ua_per_m(d_i, d_o, k_wall, 100.0, 50.0, 2.0, h_i)
+    h_o = thermal.h_outside_cylinder(d_o, 2.0, ts, 50.0)
+    r = 1 / (h_i * math.pi * d_i) + math.log(d_o / d_i) / (2 * math.pi * k_wall) + 1 / (h_o * math.pi * d_o)
+    # Source: thermal resistances in series for a cylindrical wall (Incropera ch. 3), exact.
+    assert ua == pytest.approx(1 / r, rel=2e-3)
+    # Source: the surface temperature divides the drop in proportion to the resistances (exact).
+    assert (ts - 50.0) == pytest.approx(50.0 * (1 / (h_o * math.pi * d_o)) * ua, rel=5e-3)
+
+
+def test_inside_film_laminar_value():
+    # Source: fully developed laminar flow, constant wall temperature, Nu = 3.66 (Incropera eq. 8.55).
+    assert thermal.h_inside_pipe(0.01, 5 * LPM, 20e-6, 0.13, 200.0) == pytest.approx(3.66 * 0.13 / 0.01, rel=1e-3)
+
+
+@pytest.mark.parametrize("d_fin_mm,h", [(57.15, 58.0), (22.0, 40.0), (40.0, 100.0), (30.0, 10.0)])
+def test_fin_efficiency_vs_exact_bessel_solution(d_fin_mm, h):
+    pytest.importorskip("scipy")
+    import ht
+    args = (0.0254 if d_fin_mm > 30 else 0.00953, d_fin_mm * 1e-3, 4e-4, 200.0, h)
+    # Source: exact annular-fin solution with insulated tip (Kern and Kraus) as implemented in ht (needs scipy).
+    assert thermal.annular_fin_efficiency(*args) == pytest.approx(ht.fin_efficiency_Kern_Kraus(*args), abs=0.03)
+
+
+# -- 4. steady temperature --------------------------------------------------------------
+def test_steady_state_balances_heat_and_rejection():
+    th, _ = run(demo_job())
+    assert th["steady"]["status"] == "converged"
+    t = th["steady_temp_c"]
+    assert th["air_temp_c"] < t < th["limit_c"]
+    # Source: definition of the steady state, duty-weighted heat in = heat out; within the 0.05 K tolerance
+    # times the slope of the balance (a few W/K here).
+    assert th["steady_heat_w"] == pytest.approx(th["steady_rejected_w"], abs=0.05 * 10)
+
+
+def test_no_duty_cycle_is_reported_not_raised():
+    job = simple_job()
+    job["conditions"] = [{"name": "a", "engine_rpm": 800, "fluid_temp_c": 80},
+                         {"name": "b", "engine_rpm": 2500, "fluid_temp_c": 80}]
+    th, _ = run(job)
+    assert th["steady_temp_c"] is None
+    assert "no duty cycle" in th["steady"]["message"]
+    assert th["cooler_needed_w_per_k"] is None
+    assert th["full_lock"]["condition"].startswith("the slowest operating point")
+
+
+def test_no_steady_state_below_bound_fails_clearly():
+    job = lock_job()
+    job["conditions"][0]["duty_percent"] = 0
+    job["conditions"][1]["duty_percent"] = 100
+    th, _ = run(job)
+    assert th["steady_temp_c"] is None and th["steady"]["status"] == "none below"
+    assert th["verdict"] == "fail"
+    assert th["cooler_needed_w_per_k"] is None  # no flow through a return-path cooler at full lock
+
+
+def test_solver_reports_non_convergence():
+    r = thermal.solve_steady(lambda t: 1.0 - (t / 100.0) ** 5, 0.0, 200.0, max_iter=1)
+    assert r["status"] == "not converged" and r["temp_c"] is None and "did not converge" in r["message"]
+    # Source: exact root of a linear balance, 100 C.
+    assert thermal.solve_steady(lambda t: 100.0 - t, 0.0, 200.0)["temp_c"] == pytest.approx(100.0, abs=0.05)
+
+
+def test_duty_not_adding_to_100_is_a_field_named_error():
+    job = simple_job()
+    job["conditions"] = [{"name": "a", "engine_rpm": 800, "fluid_temp_c": 80, "duty_percent": 30},
+                         {"name": "b", "engine_rpm": 2500, "fluid_temp_c": 80, "duty_percent": 30}]
+    r = evaluate(job)
+    assert not r["ok"]
+    assert any(e["path"] == "conditions" and "duty_percent" in e["message"] and "60" in e["message"]
+               for e in r["errors"])
+
+
+@settings(max_examples=30, deadline=None)
+@given(st.lists(st.floats(min_value=0.0, max_value=100.0, allow_nan=False), min_size=1, max_size=5))
+def test_property_duty_off_100_is_always_an_error(shares):
+    total = sum(shares)
+    job = simple_job()
+    job["conditions"] = [{"name": f"c{i}", "engine_rpm": 1000, "fluid_temp_c": 60, "duty_percent": s}
+                         for i, s in enumerate(shares)]
+    r = evaluate(job)
+    if total > 0 and abs(total - 100.0) > 0.01:
+        assert not r["ok"] and any(e["path"] == "conditions" for e in r["errors"])
+    else:
+        assert r["ok"]
+
+
+# -- 5. full-lock hold ------------------------------------------------------------------
+def test_warmup_matches_analytic_first_order_solution():
+    t0, ta, p, ua, mcp = 80.0, 50.0, 1000.0, 0.4, 1800.0
+    r = thermal.warmup(t0, p, lambda t: ua * (t - ta), mcp, 125.0, 600.0)
+    assert len(r["curve"]) == 51
+    for pt in r["curve"]:
+        # Source: exact solution T(t) = Ta + P/UA + (T0 - Ta - P/UA) exp(-t UA/(m cp)).
+        exact = ta + p / ua + (t0 - ta - p / ua) * math.exp(-pt["t_s"] * ua / mcp)
+        assert pt["temp_c"] == pytest.approx(exact, abs=1e-6)
+    # Source: the same exact solution solved for T = 125 C.
+    t_exact = -mcp / ua * math.log((125.0 - ta - p / ua) / (t0 - ta - p / ua))
+    assert r["seconds_to_limit"] == pytest.approx(t_exact, abs=0.05)
+
+
+def test_warmup_levels_off_below_limit():
+    r = thermal.warmup(60.0, 100.0, lambda t: 5.0 * (t - 50.0), 2000.0, 125.0, 600.0)
+    assert r["seconds_to_limit"] is None
+    # Source: exact asymptote Ta + P/UA = 70 C.
+    assert r["levels_off_c"] == pytest.approx(70.0, abs=1e-6)
+    assert "never reached" in r["message"]
+
+
+def test_engine_full_lock_matches_analytic_solution():
+    area, h, other_l = 0.05, 12.0, 0.6
+    job = lock_job(reservoir_area_m2=area, reservoir_h_w_m2k=h, other_volume_l=other_l, full_lock_hold_s=300.0)
+    th, ops = run(job)
+    fl = th["full_lock"]
+    t0 = th["steady_temp_c"]
+    assert fl["start_temp_c"] == t0
+    # fluid volume written out from the job: two hoses of 9.5 mm bore and 1 m each, plus other_volume_l
+    vol = 2 * math.pi / 4 * 0.0095 ** 2 * 1.0 + other_l * 1e-3
+    assert fl["volume_l"] == pytest.approx(vol * 1e3, rel=1e-12)
+    norm, _, _ = validate_job(copy.deepcopy(job))
+    rho = fluid_state(norm["fluid"], t0).rho_kg_m3
+    mcp = rho * vol * norm["fluid"]["specific_heat_j_kgk"]
+    p, ua, ta = 85 * BAR * 7.5 * LPM, area * h, 50.0
+    for pt in th["full_lock_curve"]:
+        # Source: exact first-order solution; the lines carry no flow at full lock, so only UA = area x h.
+        exact = ta + p / ua + (t0 - ta - p / ua) * math.exp(-pt["t_s"] * ua / mcp)
+        assert pt["temp_c"] == pytest.approx(exact, abs=1e-6)
+    # Source: the same exact solution solved for the fluid limit.
+    lim = th["limit_c"]
+    t_exact = -mcp / ua * math.log((lim - ta - p / ua) / (t0 - ta - p / ua))
+    assert th["full_lock_seconds_to_limit"] == pytest.approx(t_exact, abs=0.05)
+
+
+@settings(max_examples=20, deadline=None)
+@given(st.floats(min_value=3.0, max_value=15.0), st.floats(min_value=0.1, max_value=10.0))
+def test_property_more_flow_at_full_lock_never_delays_limit(q1, dq):
+    def time_to_limit(q):
+        job = lock_job(flow_lpm=q)
+        job["pump"]["displacement_cc_rev"] = 40.0  # so the flow-control setting sets the flow
+        for c in job["conditions"]:  # no duty cycle: the hold starts from the full-lock point's 80 C
+            c["duty_percent"] = 0.0
+        th, _ = run(job)
+        return th["full_lock_seconds_to_limit"], th["full_lock"]["start_temp_c"]
+
+    (t1, s1), (t2, s2) = time_to_limit(q1), time_to_limit(q1 + dq)
+    assert s1 == s2 == 80.0
+    assert t1 is not None and t2 is not None
+    assert t2 <= t1 + 1e-6
+
+
+# -- 6. cooler advice -------------------------------------------------------------------
+def test_needed_cooler_rating_brings_steady_to_target():
+    job = lock_job(air_temp_c=80.0, limit_margin_c=5.0)
+    job["conditions"][1]["duty_percent"] = 20.0
+    job["conditions"][0]["duty_percent"] = 80.0
+    th, _ = run(job)
+    need = th["cooler_needed_w_per_k"]
+    assert need and need > 0 and th["steady_temp_c"] > th["target_c"]
+    job["thermal"]["cooler"] = {"type": "rating", "w_per_k": need}
+    th2, _ = run(job)
+    # Source: definition of the advice: with the advised rating the steady temperature is the target (solver tol).
+    assert th2["steady_temp_c"] == pytest.approx(th["target_c"], abs=0.1)
+    tube_m = th["cooler_needed_tube_m"]
+    assert tube_m and tube_m > 0
+    job["thermal"]["cooler"] = {"type": "tube", "tube_length_m": tube_m}
+    th3, _ = run(job)
+    # Source: definition of the advice, for the tube cooler of the advised length.
+    assert th3["steady_temp_c"] == pytest.approx(th["target_c"], abs=0.1)
+
+
+def test_no_cooler_needed_for_demo():
+    th, _ = run(demo_job())
+    assert th["cooler_needed_w_per_k"] == 0.0 and "no cooler needed" in th["cooler_message"]
+
+
+def test_finned_tube_rejects_more_than_plain():
+    job = lock_job(air_temp_c=80.0)
+    plain = {"type": "tube", "tube_length_m": 1.0, "air_speed_m_s": 4.0}
+    finned = dict(plain, fins_per_inch=10, fin_od_mm=25.0)
+    job["thermal"]["cooler"] = plain
+    t_plain = run(job)[0]["steady_temp_c"]
+    job["thermal"]["cooler"] = finned
+    t_finned = run(job)[0]["steady_temp_c"]
+    assert t_finned < t_plain
+
+
+def test_fin_fields_are_checked_by_name():
+    job = lock_job(cooler={"type": "tube", "tube_length_m": 1.0, "fins_per_inch": 10})
+    r = evaluate(job)
+    assert not r["ok"] and any(e["path"] == "thermal.cooler.fin_od_mm" for e in r["errors"])
+
+
+@settings(max_examples=20, deadline=None)
+@given(st.floats(min_value=0.5, max_value=200.0), st.floats(min_value=1.0, max_value=3.0))
+def test_property_bigger_cooler_never_raises_steady(w1, factor):
+    def steady(w):
+        job = lock_job(air_temp_c=70.0, cooler={"type": "rating", "w_per_k": w})
+        return run(job)[0]["steady_temp_c"]
+
+    # Source: property of the model; allow the solver tolerance (0.05 K) twice.
+    assert steady(w1 * factor) <= steady(w1) + 2 * thermal.STEADY_TOL_K
+
+
+# -- 7. result and environment -----------------------------------------------------------
+def test_result_keys_and_demo_timing():
+    import time
+    norm, _, _ = validate_job(demo_job())
+    circuit = Circuit(norm)
+    ops = [circuit.operating_point(c) for c in norm["conditions"]]
+    thermal.assess(circuit, [circuit.operating_point(c) for c in norm["conditions"]])  # warm the air cache
+    t = time.perf_counter()
+    th = thermal.assess(circuit, ops)
+    elapsed = time.perf_counter() - t
+    for key in ("steady_temp_c", "full_lock_seconds_to_limit", "full_lock_curve", "cooler_needed_w_per_k",
+                "limit_c", "verdict", "message", "method", "checks"):
+        assert key in th
+    assert all(isinstance(s, str) and s for s in th["method"])
+    assert th["verdict"] in ("ok", "caution", "fail")
+    for c in ops:
+        assert {"heat_w", "heat_rejected_w"} <= set(c)
+    assert 40 <= len(th["full_lock_curve"]) <= 51
+    assert elapsed < 0.05  # about 4 ms here; generous for a slow CI box
+
+
+def test_evaluate_carries_heat_per_condition():
+    r = evaluate(demo_job())
+    assert r["ok"] and all("heat_w" in c and "heat_rejected_w" in c for c in r["conditions"])
+
+
+@pytest.mark.xfail(reason="calc.engine.evaluate computes thermal_section but does not yet put it into "
+                          "result['thermal'] (one key, engine owner)", strict=False)
+def test_evaluate_carries_thermal_section():
+    r = evaluate(demo_job())
+    assert r["thermal"]["steady_temp_c"] > r["thermal"]["air_temp_c"]
+
+
+def test_thermal_stage_runs_without_numpy_or_scipy():
+    code = ("import sys; sys.modules['numpy'] = None; sys.modules['scipy'] = None\n"
+            "import json, copy\n"
+            "from calc.engine import Circuit\nfrom calc.model import validate_job\nfrom calc import thermal\n"
+            "from tests.jobs import demo_job\n"
+            "j = demo_job(); j['thermal'] = {'cooler': {'type': 'tube', 'tube_length_m': 1.0, "
+            "'fins_per_inch': 8, 'fin_od_mm': 22.0}}\n"
+            "n, p, _ = validate_job(j); assert not p\n"
+            "c = Circuit(n); th = thermal.assess(c, [c.operating_point(x) for x in n['conditions']])\n"
+            "assert th['steady_temp_c'] is not None\n"
+            "assert 'numpy' not in sys.modules or sys.modules['numpy'] is None\n"
+            "print('ok')\n")
+    from pathlib import Path
+    root = Path(__file__).resolve().parent.parent
+    out = subprocess.run([sys.executable, "-c", code], cwd=root, capture_output=True, text=True, timeout=60)
+    assert out.returncode == 0, out.stderr
+    assert out.stdout.strip() == "ok"
