@@ -520,8 +520,9 @@ def assess(circuit, conditions: list[dict], lines: list[dict], job: dict) -> lis
         bursts = [r for r in prs if r["burst_bar"] is not None]
         working = weakest["working_bar"] if weakest else None
         burst = min(r["burst_bar"] for r in bursts) if bursts else None
-        margin = working / required if (working is not None and required > 0) else None
-        burst_margin = burst / required if (burst is not None and required > 0) else None
+        low = required < LOW_PRESSURE_BAR  # near atmospheric: a margin would mean nothing
+        margin = working / required if (working is not None and not low) else None
+        burst_margin = burst / required if (burst is not None and not low) else None
         route = route_geometry(jl["route_points_mm"]) if jl.get("route_points_mm") else None
         rating = {
             "working_bar": working, "burst_bar": burst,

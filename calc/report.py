@@ -28,11 +28,14 @@ def _rating_lines(ln: dict, units: str) -> list[str]:
     out = [f"    rating: working {p(r['working_bar'])}, burst {p(r['burst_bar'])}, must hold "
            f"{_u(r['required_bar'], 'pressure_bar', units, '{:.1f}')} {P} ({r['required_basis']})"]
     wp = r["weakest_part"]
-    margin = "unknown" if r["margin"] is None else f"{r['margin']:.2f}"
-    burst = "unknown" if r["burst_margin"] is None else f"{r['burst_margin']:.1f}:1"
-    out.append(f"    margin {margin} (working / required), burst margin {burst} against "
-               f"{r['design_factor']:g}:1; weakest part: "
-               + (f"{wp['index']} {wp['description']}" if wp else "none rated")
+    if r["required_bar"] < 1.0:
+        head = "    margin: not limiting, the line stays near atmospheric"
+    else:
+        margin = "unknown" if r["margin"] is None else f"{r['margin']:.2f}"
+        burst = "unknown" if r["burst_margin"] is None else f"{r['burst_margin']:.1f}:1"
+        head = (f"    margin {margin} (working / required), burst margin {burst} against "
+                f"{r['design_factor']:g}:1")
+    out.append(head + "; weakest part: " + (f"{wp['index']} {wp['description']}" if wp else "none rated")
                + (f"; unrated parts: {', '.join(map(str, r['unrated_parts']))}" if r["unrated_parts"] else ""))
     return out
 
