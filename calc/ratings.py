@@ -376,6 +376,15 @@ def part_ratings(parts: list[dict], rset: dict, t_max_c: float, t_min_c: float) 
         burst_bar, design_factor, max_temp_c, min_temp_c, min_bend_radius_mm,
         source, notes. Reservoir entrance and exit carry no pressure and are
         left out.
+
+    Examples
+    --------
+    >>> rset = {"hose_design_factor": 4.0, "tube_design_factor": 4.0}
+    >>> fit = {"kind": "fitting", "bore_mm": 6.0, "family": "jic-37", "dash": 6, "working_bar": None,
+    ...        "max_temp_c": None}
+    >>> r = part_ratings([fit], rset, 100.0, -20.0)[0]
+    >>> r["working_bar"], r["source"]
+    (310.3, 'SAE J514 (from memory)')
     """
     hdf, tdf = rset["hose_design_factor"], rset["tube_design_factor"]
     fams, seals = fitting_families(), _seals()
@@ -487,7 +496,19 @@ def assess(circuit, conditions: list[dict], lines: list[dict], job: dict) -> lis
     surge allowance (``ratings.surge_percent``); return and feed lines, the
     highest computed pressure anywhere in the line over all operating points,
     cold start included. Temperatures: the highest and lowest fluid
-    temperature over the operating points.
+    temperature over the operating points (the thermal stage's steady
+    temperature comes later and is not used here).
+
+    Examples
+    --------
+    The demo's pressure line (85 bar relief, 25 % surge allowance):
+
+    >>> import json, importlib.resources as ir
+    >>> from calc.engine import evaluate
+    >>> demo = json.loads((ir.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
+    >>> r = evaluate(demo)["lines"][0]["rating"]
+    >>> r["required_bar"], r["margin"] == r["working_bar"] / r["required_bar"]
+    (106.25, True)
     """
     rset = job["ratings"]
     warnings: list[Problem] = []
@@ -751,6 +772,15 @@ def rank_candidates(circuit, conditions, states, ln_c, jl, job, required, route,
         the velocity band, 'fail'), failed (check names), reasons,
         velocity_max_m_s, pressure_drop_bar, working_bar, min_bend_radius_mm.
         Empty for a line without hose.
+
+    Examples
+    --------
+    >>> import json, importlib.resources as ir
+    >>> from calc.engine import evaluate
+    >>> demo = json.loads((ir.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
+    >>> best = evaluate(demo)["lines"][1]["candidates"][0]
+    >>> best["verdict"] in ("ok", "caution"), best["failed"], best["class"] in hose_classes()
+    (True, [], True)
     """
     parts = jl["parts"]
     hose_idx = [i for i, p in enumerate(parts) if p["kind"] == "hose"]
