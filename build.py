@@ -280,6 +280,19 @@ def load_demos() -> list[dict]:
     return demos
 
 
+def _page_model() -> dict:
+    """The engine's job model, unit table and cautions, for the form and the page's script."""
+    sys.path.insert(0, str(ROOT))
+    try:
+        from calc.model import describe_job
+        from calc.report import CAUTIONS
+        from calc.units import UNITS
+    finally:
+        sys.path.remove(str(ROOT))
+    return {"model": describe_job(), "units": {k: list(v) for k, v in UNITS.items()},
+            "cautions": list(CAUTIONS)}
+
+
 def render_page(out_dir: Path, demos: list[dict], wheels: list[str]) -> None:
     import jinja2  # build-time only
 
@@ -296,26 +309,68 @@ def render_page(out_dir: Path, demos: list[dict], wheels: list[str]) -> None:
         demos=demos,
         first_demo=demos[0]["job"] if demos else None,
         pyodide_version=PYODIDE_VERSION,
+        **_page_model(),
     )
     (out_dir / "index.html").write_text(html, encoding="utf-8")
 
 
-def write_manifest(out_dir: Path) -> dict:
-    """Write out_dir/manifest.json: every file with size and sha256, and a build hash."""
+def _file_entries(out_dir: Path, skip: tuple[str, ...] = ("manifest.json",)) -> list[dict]:
     files = []
     for path in sorted(out_dir.rglob("*")):
-        if path.is_file() and path.name != "manifest.json":
-            files.append({
-                "path": path.relative_to(out_dir).as_posix(),
-                "size": path.stat().st_size,
-                "sha256": _sha256_file(path),
-            })
-    h = hashlib.sha256()
-    for entry in files:
+        rel = path.relative_to(out_dir).as_posix()
+        if path.is_file() and rel not in skip:
+            files.append({"path": rel, "size": path.stat().st_size, "sha256": _sha256_file(path)})
+    return files
+
+
+def _hash_entries(entries: list[dict], salt: bytes = b"") -> str:
+    h = hashlib.sha256(salt)
+    for entry in entries:
         h.update(f"{entry['path']}\0{entry['size']}\0{entry['sha256']}\n".encode())
+    return h.hexdigest()
+
+
+# Placeholders in site/static/sw.js that write_service_worker fills in.
+SW_BUILD_MARK = "__LINESMITH_BUILD__"
+SW_FILES_MARK = "/*__LINESMITH_FILES__*/[]"
+
+
+def write_service_worker(out_dir: Path) -> str:
+    """Fill out_dir/sw.js with the build hash and the precache list; return the build hash.
+
+    The precache list is every file of out_dir except sw.js itself (browsers keep
+    the worker script apart) with its sha256 as a Subresource Integrity value;
+    manifest.json, written afterwards, is listed without one (the service worker
+    checks its ``build`` field instead). The build hash covers every listed file
+    and the sw.js template, so it changes whenever any shipped byte changes, and
+    it is the ``build`` value of manifest.json.
+    """
+    sw_path = out_dir / "sw.js"
+    template = sw_path.read_text(encoding="utf-8")
+    if SW_BUILD_MARK not in template or SW_FILES_MARK not in template:
+        raise BuildError("site/static/sw.js lacks its build placeholders; restore them from git.")
+    entries = _file_entries(out_dir, skip=("manifest.json", "sw.js"))
+    build_id = _hash_entries(entries, salt=hashlib.sha256(template.encode()).digest())
+    files = [{"path": e["path"],
+              "integrity": "sha256-" + base64.b64encode(bytes.fromhex(e["sha256"])).decode("ascii")}
+             for e in entries]
+    files.append({"path": "manifest.json", "integrity": ""})
+    text = template.replace(SW_BUILD_MARK, build_id, 1).replace(
+        SW_FILES_MARK, json.dumps(files, separators=(",", ":")), 1)
+    sw_path.write_text(text, encoding="utf-8")
+    return build_id
+
+
+def write_manifest(out_dir: Path, build_id: str | None = None) -> dict:
+    """Write out_dir/manifest.json: every file with size and sha256, and a build hash.
+
+    build_id is the hash write_service_worker put into sw.js; without one, the
+    hash of the listed files is used.
+    """
+    files = _file_entries(out_dir)
     manifest = {
         "version": 1,
-        "build": h.hexdigest(),
+        "build": build_id or _hash_entries(files),
         "pyodide": PYODIDE_VERSION,
         "total_bytes": sum(e["size"] for e in files),
         "files": files,
@@ -346,11 +401,16 @@ def _swap_into_place(stage: Path, out_dir: Path, attempts: int = 20) -> None:
         return
 
 
-def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR) -> dict:
+def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
+          extra_files: dict[str, bytes] | None = None) -> dict:
     """Build the static site into out_dir and return its manifest.
 
     The site is assembled in a fresh folder beside out_dir and then moved into
-    place, so a half-finished build never replaces a working one.
+    place, so a half-finished build never replaces a working one. extra_files
+    ({relative path: bytes}) are added to the site before the precache list and
+    manifest are written: the offline tests stamp builds with them, the browser
+    benchmark adds its bare-boot page to a temporary build. The shipped dist/
+    is built without any.
     """
     out_dir = Path(out_dir).resolve()
     tarball = pyodide_tarball(cache_dir)
@@ -388,8 +448,19 @@ def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR) -> dict:
         for wheel in other_wheels:
             copy_wheel_licences(wheel, licences)
 
+        # Installable web app: the manifest and our own icons.
+        shutil.copyfile(SITE_DIR / "manifest.webmanifest", stage / "manifest.webmanifest")
+        (stage / "icons").mkdir()
+        for icon in sorted((SITE_DIR / "icons").glob("icon*")):
+            shutil.copyfile(icon, stage / "icons" / icon.name)
+
         render_page(stage, demos, [calc_wheel.name] + [w.name for w in other_wheels])
-        manifest = write_manifest(stage)
+        for rel, data in (extra_files or {}).items():
+            target = stage / rel
+            target.parent.mkdir(parents=True, exist_ok=True)
+            target.write_bytes(data)
+        build_id = write_service_worker(stage)
+        manifest = write_manifest(stage, build_id)
 
         _swap_into_place(stage, out_dir)
     except BaseException:
@@ -414,6 +485,8 @@ class SiteHandler(http.server.SimpleHTTPRequestHandler):
         ".whl": "application/zip",
         ".md": "text/plain; charset=utf-8",
         ".svg": "image/svg+xml",
+        ".png": "image/png",
+        ".webmanifest": "application/manifest+json",
         ".txt": "text/plain; charset=utf-8",
     }
 

@@ -25,7 +25,7 @@ def test_missing_npm_gives_one_sentence(tmp_path, monkeypatch):
 def test_missing_npm_exit_status(tmp_path, monkeypatch, capsys):
     monkeypatch.setattr(build.shutil, "which", lambda name: None)
     monkeypatch.setattr(build, "CACHE_DIR", tmp_path)
-    monkeypatch.setattr(build.build, "__defaults__", (tmp_path / "dist", tmp_path))
+    monkeypatch.setattr(build.build, "__defaults__", (tmp_path / "dist", tmp_path, None))
     assert build.main([]) == 1
     err = capsys.readouterr().err.strip()
     assert err.startswith("Linesmith's build needs Node.js with npm") and "\n" not in err

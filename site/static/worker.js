@@ -7,7 +7,8 @@
 //                   {"type": "call", "id": N, "request": "<request JSON>"}
 //   worker -> page  {"type": "progress", "percent": P, "text": "..."}
 //                   {"type": "ready", "timings_ms": {...}}
-//                   {"type": "reply", "id": N, "response": "<response JSON>"}
+//                   {"type": "reply", "id": N, "response": "<response JSON>",
+//                    "handle_ms": time spent in calc.api.handle}
 //                   {"type": "failed", "message": "..."}
 import { loadPyodide } from "./pyodide/pyodide.mjs";
 
@@ -49,6 +50,10 @@ async function boot(config) {
   progress(85, "Starting the engine…");
   const api = pyodide.pyimport("calc.api");
   handle = api.handle;
+  // For tests and the browser benchmark (Playwright's worker.evaluate): the
+  // runtime, to read its memory or to make the engine fail on purpose. Only
+  // code already running in this worker can reach it.
+  self.linesmithEngine = { pyodide, version: pyodide.version };
   const tImport = performance.now();
   send({
     type: "ready",
@@ -63,16 +68,21 @@ async function boot(config) {
 
 function call(id, request) {
   let response;
+  const t0 = performance.now();
   try {
     response = handle(request);
   } catch (error) {
-    // calc.api.handle never raises by contract; this guards the bridge itself.
+    // calc.api.handle never raises an Exception by contract; this guards the
+    // bridge itself (a BaseException, a runtime error): the page gets an error
+    // reply it can show, and the next request is handled as usual.
+    const text = String((error && error.message) || error).trim().split("\n").pop();
     response = JSON.stringify({
       ok: false,
-      errors: [{ path: "", message: `internal error: ${String(error && error.message || error)}` }],
+      errors: [{ path: "", message: `internal error: ${text}` }],
+      warnings: [],
     });
   }
-  send({ type: "reply", id, response });
+  send({ type: "reply", id, response, handle_ms: performance.now() - t0 });
 }
 
 self.onmessage = (event) => {
