@@ -544,7 +544,7 @@ def solve_steady(net_w, t_lo_c: float, t_hi_c: float, tol_k: float = STEADY_TOL_
     Returns
     -------
     dict
-        ``{"status": "converged"|"none below"|"no heat"|"not converged", "temp_c", "iterations",
+        ``{"status": "converged"|"none below"|"no heat"|"not converged"|"failed", "temp_c", "iterations",
         "message"}``; ``temp_c`` is None unless converged.
 
     Examples
@@ -553,6 +553,14 @@ def solve_steady(net_w, t_lo_c: float, t_hi_c: float, tol_k: float = STEADY_TOL_
     >>> r["status"], round(r["temp_c"], 1)
     ('converged', 100.0)
     """
+    try:
+        return _solve_steady(net_w, t_lo_c, t_hi_c, tol_k, max_iter)
+    except (ArithmeticError, ValueError) as exc:  # a property or correlation out of its domain
+        return {"status": "failed", "temp_c": None, "iterations": 0,
+                "message": f"the steady-temperature solve failed ({type(exc).__name__}: {exc})"}
+
+
+def _solve_steady(net_w, t_lo_c, t_hi_c, tol_k, max_iter):
     f_lo = net_w(t_lo_c)
     evals = 1
     if f_lo <= 0.0:
@@ -1008,7 +1016,8 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
                                      f"the fluid settles near {steady:.0f} C with {ta:.0f} C air, at least "
                                      f"{margin:.0f} K under its limit {limit:.0f} C"))
         else:
-            checks.append(_check("steady temperature", "fail", res["message"] + "; fit a cooler"))
+            checks.append(_check("steady temperature", "fail", res["message"]
+                                 + ("; fit a cooler or cut the heat load" if res["status"] == "none below" else "")))
     out["steady_temp_c"] = steady
     # -- full-lock hold ------------------------------------------------------------
     fl_cond, fl_from = _full_lock_condition(job_conds)
@@ -1020,7 +1029,10 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     cap = rho0 * model.volume_m3 * fl["specific_heat_j_kgk"]
     q_fl = op["circuit_flow_lpm"] * LPM
     hold = model.th["full_lock_hold_s"]
-    if q_fl <= 0.0:  # no flow in the lines or a cooler: only the reservoir rejects, linear in T (fast path)
+    if cap <= 0.0:
+        wu = {"curve": [], "seconds_to_limit": None, "levels_off_c": None, "curve_note": "",
+              "message": "no fluid volume listed (give thermal.other_volume_l): the warm-up cannot be estimated"}
+    elif q_fl <= 0.0:  # no flow in the lines or a cooler: only the reservoir rejects, linear in T (fast path)
         ua_res = model.th["reservoir_area_m2"] * model.th["reservoir_h_w_m2k"]
 
         def rejected(t):
@@ -1028,7 +1040,8 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     else:
         def rejected(t):
             return model.rejection(t, q_fl, fl_cond["air_speed_m_s"])["total_w"]
-    wu = warmup(t0, power, rejected, cap, limit, hold, curve_stop_c=limit + CURVE_OVER_LIMIT_K)
+    if cap > 0.0:
+        wu = warmup(t0, power, rejected, cap, limit, hold, curve_stop_c=limit + CURVE_OVER_LIMIT_K)
     out["full_lock"] = {"condition": fl_from, "start_temp_c": t0, "start_from": start_from, "heat_w": power,
                         "volume_l": model.volume_m3 * 1e3, "heat_capacity_j_k": cap,
                         "levels_off_c": wu["levels_off_c"], "message": wu["message"],
@@ -1036,7 +1049,9 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     out["full_lock_seconds_to_limit"] = wu["seconds_to_limit"]
     out["full_lock_curve"] = wu["curve"]
     tl = wu["seconds_to_limit"]
-    if tl is not None and tl < hold:
+    if cap <= 0.0:
+        checks.append(_check("full-lock hold", "caution", wu["message"]))
+    elif tl is not None and tl < hold:
         checks.append(_check("full-lock hold", "caution",
                              f"do not hold the wheel at full lock for long: starting from {start_from} "
                              f"({t0:.0f} C), {wu['message']} ({power:.0f} W into {model.volume_m3 * 1e3:.2f} L)"))
@@ -1070,6 +1085,12 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     else:  # a cooler is needed: fine if the one fitted already holds the target
         verdict = "ok" if c["type"] != "none" and steady is not None and steady <= target else "caution"
     checks.append(_check("cooler", verdict, msg))
+    for ln in circuit.lines:
+        for k, p in enumerate(ln["parts"]):
+            if p["kind"] == "device" and p.get("is_cooler") and c["type"] == "none":
+                checks.append(_check("cooler", "caution",
+                                     f"lines[{ln['index']}].parts[{k}] is marked as a cooler but thermal.cooler "
+                                     "gives no rating or tube: its heat rejection is not counted"))
     out["checks"] = checks
     order = {"ok": 0, "caution": 1, "fail": 2}
     worst = max(checks, key=lambda ch: order[ch["verdict"]])

@@ -54,8 +54,7 @@ def test_temp_rise_matches_rule_of_thumb_and_energy_balance():
     assert c["circuit_flow_lpm"] == pytest.approx(7.5)
     dev = c["lines"][1]["parts"][1]
     assert dev["pressure_drop_bar"] == pytest.approx(10.0, rel=1e-12)
-    s = fluid_state(r["fluid"] | {"walther_a": 0, "walther_b": 0, "expansion_per_k": 0.0007,
-                                  "conductivity_w_mk": 0.13}, 15.0)
+    s = fluid_state(validate_job(copy.deepcopy(job))[0]["fluid"], 15.0)
     # Source: first law for adiabatic throttling of a liquid, dT = dp / (rho cp) (exact for the model).
     assert dev["temp_rise_c"] == pytest.approx(10 * BAR / (s.rho_kg_m3 * s.cp_j_kgk), rel=1e-9)
     # Source: common practice, no source: about 0.57 K per 10 bar for mineral oil (a rule of thumb, 10 %).
@@ -418,3 +417,18 @@ def test_thermal_stage_runs_without_numpy_or_scipy():
     out = subprocess.run([sys.executable, "-c", code], cwd=root, capture_output=True, text=True, timeout=60)
     assert out.returncode == 0, out.stderr
     assert out.stdout.strip() == "ok"
+
+
+def test_zero_fluid_volume_is_reported_not_raised():
+    job = lock_job(other_volume_l=0.0)
+    job["lines"] = [{"name": "p", "role": "pressure", "parts": [{"kind": "device", "dp_bar": 1.0, "at_flow_lpm": 7.5}]}]
+    th, _ = run(job)
+    assert th["full_lock_seconds_to_limit"] is None and th["full_lock_curve"] == []
+    assert "no fluid volume" in th["full_lock"]["message"]
+
+
+def test_cooler_device_without_thermal_cooler_is_flagged():
+    job = lock_job()
+    job["lines"][1]["parts"].insert(1, {"kind": "device", "dp_bar": 0.3, "at_flow_lpm": 7.5, "is_cooler": True})
+    th, _ = run(job)
+    assert any(ch["check"] == "cooler" and "lines[1].parts[1]" in ch["message"] for ch in th["checks"])
