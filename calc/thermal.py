@@ -119,7 +119,7 @@ METHOD = [
     f"temperature, every operating point re-solved at the trial temperature; bracketed regula falsi "
     f"(Illinois) between the air temperature and {STEADY_MAX_C:g} C, to a bracket under {STEADY_TOL_K} K.",
     "Full-lock hold: one well-mixed lump of the whole fluid volume (lines + other_volume_l), rho cp V, "
-    "integrated by RK4 from the steady temperature (or the full-lock point's own temperature when there is "
+    "stepped by the exact solution of the locally linearised balance from the steady temperature (or the full-lock point's own temperature when there is "
     "no steady temperature). The lines and a flow-through cooler carry no flow at full lock, so only the "
     "reservoir rejects heat; the fluid in the pump heats faster than this average, so the time shown is "
     "an upper estimate.",
@@ -604,7 +604,15 @@ def _solve_steady(net_w, t_lo_c, t_hi_c, tol_k, max_iter):
 def warmup(t0_c: float, power_w: float, rejected_w, heat_capacity_j_k: float, limit_c: float,
            hold_s: float, n_points: int = 50, substeps: int = 8, search_s: float = 86400.0,
            curve_stop_c: float | None = None) -> dict:
-    r"""Lumped warm-up :math:`m c_p\, dT/dt = P - \dot Q_{rej}(T)` by classical RK4.
+    r"""Lumped warm-up :math:`m c_p\, dT/dt = P - \dot Q_{rej}(T)`, stepped exponentially.
+
+    Each step linearises the rejection about the current temperature,
+    :math:`\dot Q_{rej} \approx R_0 + s (T - T_n)`, and advances by the exact
+    solution of that linear equation,
+    :math:`T_{n+1} = T_{eq} + (T_n - T_{eq}) e^{-s \Delta t/(m c_p)}`,
+    :math:`T_{eq} = T_n + (P - R_0)/s`; an explicit Euler step when :math:`s \le 0`.
+    The step is exact for a constant UA at any step size and never unstable
+    (hand-written: no library integrator runs without scipy).
 
     Parameters
     ----------
@@ -623,7 +631,7 @@ def warmup(t0_c: float, power_w: float, rejected_w, heat_capacity_j_k: float, li
     n_points : int
         The curve has ``n_points + 1`` points from 0 to ``hold_s``.
     substeps : int
-        RK4 steps between curve points.
+        Steps between curve points.
     search_s : float
         How far past ``hold_s`` to look for the limit, [s].
     curve_stop_c : float, optional
@@ -635,7 +643,7 @@ def warmup(t0_c: float, power_w: float, rejected_w, heat_capacity_j_k: float, li
     dict
         ``{"curve": [{"t_s", "temp_c"}], "seconds_to_limit": float|None, "final_temp_c",
         "levels_off_c": float|None, "message", "curve_note"}``; the time to limit is interpolated linearly within
-        an RK4 step.
+        a step.
 
     Examples
     --------
@@ -651,15 +659,13 @@ def warmup(t0_c: float, power_w: float, rejected_w, heat_capacity_j_k: float, li
     .. [1] Bergman, Lavine, Incropera, DeWitt. Fundamentals of Heat and Mass Transfer, 7th ed.,
        2011, sec. 5.3 (general lumped capacitance analysis).
     """
-    def rate(t):
-        return (power_w - rejected_w(t)) / heat_capacity_j_k
-
     def step(t, dt):
-        k1 = rate(t)
-        k2 = rate(t + 0.5 * dt * k1)
-        k3 = rate(t + 0.5 * dt * k2)
-        k4 = rate(t + dt * k3)
-        return t + dt / 6.0 * (k1 + 2 * k2 + 2 * k3 + k4)
+        r0 = rejected_w(t)
+        s = rejected_w(t + 0.5) - rejected_w(t - 0.5)
+        if s > 0.0:
+            t_eq = t + (power_w - r0) / s
+            return t_eq + (t - t_eq) * math.exp(-s * dt / heat_capacity_j_k)
+        return t + dt * (power_w - r0) / heat_capacity_j_k
 
     curve = [{"t_s": 0.0, "temp_c": t0_c}]
     t_time, temp = 0.0, t0_c

@@ -432,3 +432,33 @@ def test_cooler_device_without_thermal_cooler_is_flagged():
     job["lines"][1]["parts"].insert(1, {"kind": "device", "dp_bar": 0.3, "at_flow_lpm": 7.5, "is_cooler": True})
     th, _ = run(job)
     assert any(ch["check"] == "cooler" and "lines[1].parts[1]" in ch["message"] for ch in th["checks"])
+
+
+def test_warmup_with_nonlinear_rejection_vs_fine_rk4():
+    # Rejection like free convection, Q = a (T - Ta)^1.25; reference: classical RK4 written out here with
+    # 20000 steps (converged to well under 0.01 K).
+    ta, p, a, mcp, t0, hold = 50.0, 800.0, 0.3, 2500.0, 60.0, 900.0
+
+    def rej(t):
+        return a * abs(t - ta) ** 1.25 * (1 if t >= ta else -1)
+
+    def f(t):
+        return (p - rej(t)) / mcp
+
+    n, t, h = 20000, t0, hold / 20000
+    for _ in range(n):
+        k1 = f(t)
+        k2 = f(t + 0.5 * h * k1)
+        k3 = f(t + 0.5 * h * k2)
+        k4 = f(t + h * k3)
+        t += h / 6 * (k1 + 2 * k2 + 2 * k3 + k4)
+    r = thermal.warmup(t0, p, rej, mcp, 500.0, hold)
+    # Source: independent RK4 integration of the same lumped equation (fine steps).
+    assert r["curve"][-1]["temp_c"] == pytest.approx(t, abs=0.05)
+
+
+def test_warmup_is_stable_for_a_tiny_volume_and_big_rejection():
+    r = thermal.warmup(80.0, 1000.0, lambda t: 2000.0 * (t - 50.0), 100.0, 125.0, 8000.0)
+    # Source: exact asymptote Ta + P/UA = 50.5 C, reached within a few time constants (0.05 s).
+    assert all(math.isfinite(p["temp_c"]) for p in r["curve"])
+    assert r["curve"][-1]["temp_c"] == pytest.approx(50.5, abs=1e-9)
