@@ -750,6 +750,7 @@ class ThermalModel:
                         wall = p.get("wall_mm")
                         if wall is None:
                             wall = default_hose_wall_mm(d_i * 1e3)
+                            self.notes.append(f"lines[{ln['index']}].parts[{k}].wall_mm")
                         k_wall = th["hose_conductivity_w_mk"]
                         d_o = d_i + 2.0 * wall * 1e-3
                     else:
@@ -940,7 +941,8 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
 
     Adds ``heat_w``, ``heat_hydraulic_w``, ``heat_pump_loss_w``, ``heat_rejected_w`` and
     ``heat_rejected_detail`` to each solved operating point in ``conditions`` (at that
-    point's own temperature) and returns the ``thermal`` section of the result.
+    point's own temperature; negative when the fluid is colder than the air, which then
+    warms it) and returns the ``thermal`` section of the result.
     Never raises on a validated job: a solve that fails is reported in the result.
 
     Parameters
@@ -987,7 +989,10 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
         op["heat_rejected_detail"] = b["rejection"]
     checks = []
     out = {"limit_c": limit, "target_c": target, "margin_c": margin, "air_temp_c": ta,
-           "method": list(METHOD)}
+           "method": list(METHOD), "hose_wall_defaulted": list(model.notes)}
+    if model.notes:
+        out["method"].append("Hose walls not given (" + ", ".join(model.notes) + ") use a typical wall for the "
+                             "bore (from memory, braided hydraulic hose); give wall_mm from the datasheet.")
     # -- steady temperature ------------------------------------------------------
     duty = [(c, c["duty_percent"] / 100.0) for c in job_conds if c["duty_percent"] > 0.0]
     steady = None
