@@ -107,6 +107,8 @@ METHOD = [
     "4000), wall conduction ln(do/di)/(2 pi k) and outside film in series; outside, natural convection by "
     "Churchill-Chu (horizontal cylinder) and forced convection by Churchill-Bernstein (cylinder in cross "
     "flow) combined as Nu^3 = Nu_forced^3 + Nu_free^3 (Churchill 1977); surface temperature iterated.",
+    "Radiation is not counted: conservative, since a black hose in still air can radiate about as much as "
+    "it loses by free convection when the surroundings are cooler (under a hood they often are not).",
     "Air properties from the 1976 standard atmosphere at sea level, offset to the film temperature "
     "(fluids.ATMOSPHERE_1976); air cp 1007 J/(kg K) (from memory).",
     "Each part rejects C (1 - exp(-UA/C)) (T - T_air), C = rho cp Q of the fluid through it (effectiveness-"
