@@ -752,7 +752,7 @@ class ThermalModel:
                         wall = p.get("wall_mm")
                         if wall is None:
                             wall = default_hose_wall_mm(d_i * 1e3)
-                            self.notes.append(f"lines[{ln['index']}].parts[{k}].wall_mm")
+                            self.notes.append(f"lines[{ln['index']}].parts[{_job_index(p, k)}].wall_mm")
                         k_wall = th["hose_conductivity_w_mk"]
                         d_o = d_i + 2.0 * wall * 1e-3
                     else:
@@ -856,6 +856,12 @@ class ThermalModel:
         rej = self.rejection(t_c, op["circuit_flow_lpm"] * LPM, cond["air_speed_m_s"], with_cooler, detail)
         return {"heat_w": hyd_w + loss, "heat_hydraulic_w": hyd_w, "heat_pump_loss_w": loss,
                 "circuit_flow_m3_s": op["circuit_flow_lpm"] * LPM, "rejection": rej}
+
+
+def _job_index(part: dict, k: int):
+    """The part's index in the user's list (parts added by a port plan carry ``job_part``)."""
+    j = part.get("job_part", k)
+    return k if j is None else j
 
 
 def _weighted(model: ThermalModel, duty: list, t_c: float, with_cooler: bool = True) -> tuple[float, float, list]:
@@ -1102,7 +1108,8 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
         for k, p in enumerate(ln["parts"]):
             if p["kind"] == "device" and p.get("is_cooler") and c["type"] == "none":
                 checks.append(_check("cooler", "caution",
-                                     f"lines[{ln['index']}].parts[{k}] is marked as a cooler but thermal.cooler "
+                                     f"lines[{ln['index']}].parts[{_job_index(p, k)}] is marked as a cooler but "
+                                     "thermal.cooler "
                                      "gives no rating or tube: its heat rejection is not counted"))
     out["checks"] = checks
     order = {"ok": 0, "caution": 1, "fail": 2}
