@@ -90,3 +90,117 @@ def parse_shown_number(text: str) -> tuple[float, float]:
     text = text.strip()
     decimals = len(text.split(".", 1)[1]) if "." in text else 0
     return float(text), 0.5 * 10.0 ** (-decimals)
+
+
+# --------------------------------------------------------------------------
+# a probe: the page's own worker.js driven directly from a test or benchmark
+
+# Starts site/static/worker.js (a second instance, "?probe" in its URL so it can
+# be told apart in page.workers) with the given config and defines
+# window.__probe.call(requestJson) -> {response, handle_ms, round_trip_ms}.
+# Resolves with the worker's boot timings, rejects with its failure message.
+PROBE_JS = """
+async (config) => {
+  const worker = new Worker("./worker.js?probe", { type: "module" });
+  const pending = new Map();
+  let nextId = 1;
+  const ready = new Promise((resolve, reject) => {
+    worker.onmessage = (event) => {
+      const message = JSON.parse(event.data);
+      if (message.type === "ready") resolve(message.timings_ms);
+      else if (message.type === "failed") reject(new Error(message.message));
+      else if (message.type === "reply") {
+        const done = pending.get(message.id);
+        pending.delete(message.id);
+        if (done) done(message);
+      }
+    };
+    worker.onerror = (event) => reject(new Error(event.message || "the worker could not start"));
+  });
+  window.__probe = {
+    call(requestJson) {
+      const id = nextId++;
+      const t0 = performance.now();
+      return new Promise((resolve) => {
+        pending.set(id, (message) => resolve({
+          response: message.response,
+          handle_ms: message.handle_ms,
+          round_trip_ms: performance.now() - t0,
+        }));
+        worker.postMessage(JSON.stringify({ type: "call", id, request: requestJson }));
+      });
+    },
+  };
+  worker.postMessage(JSON.stringify({ type: "init", ...config }));
+  return await ready;
+}
+"""
+
+# Run in a worker with Playwright's worker.evaluate: the next calc.api.handle
+# call raises a BaseException (which handle's `except Exception` lets through),
+# as a real Python-level failure inside Pyodide would; later calls run normally.
+FAULT_ONCE_JS = """
+() => self.linesmithEngine.pyodide.runPython(`
+import calc.api as _api
+class SimulatedEngineFault(BaseException):
+    pass
+def _fail_once(request, _real=_api.dispatch):
+    _api.dispatch = _real
+    raise SimulatedEngineFault("simulated engine fault")
+_api.dispatch = _fail_once
+`)
+"""
+
+
+def engine_config(manifest: dict) -> dict:
+    """The worker's init config for a built site: Pyodide folder and wheels, ours first."""
+    wheels = sorted((e["path"] for e in manifest["files"] if e["path"].startswith("wheels/")
+                     and e["path"].endswith(".whl")), key=lambda p: (not p.startswith("wheels/linesmith-"), p))
+    return {"pyodide": "./pyodide/", "wheels": [f"./{w}" for w in wheels]}
+
+
+def probe_worker(page):
+    """The probe's Playwright Worker object (after PROBE_JS resolved)."""
+    for worker in page.workers:
+        if worker.url.endswith("worker.js?probe"):
+            return worker
+    raise AssertionError(f"probe worker not found among {[w.url for w in page.workers]}")
+
+
+def compare_json(got, want, path="result", rel=1e-9, abs_tol=1e-12, diffs=None):
+    """List the places where got differs from want: same shape, equal text, numbers close.
+
+    Numbers compare with math.isclose(rel_tol=rel, abs_tol=abs_tol); booleans and
+    integers exactly. Returns (problems, largest relative difference seen).
+    """
+    import math
+
+    if diffs is None:
+        diffs = {"problems": [], "max_rel": 0.0}
+    if isinstance(want, bool) or want is None or isinstance(want, str):
+        if got != want:
+            diffs["problems"].append(f"{path}: {got!r} != {want!r}")
+    elif isinstance(want, (int, float)):
+        if isinstance(got, bool) or not isinstance(got, (int, float)):
+            diffs["problems"].append(f"{path}: {got!r} is not a number like {want!r}")
+        else:
+            if want != got:
+                scale = max(abs(want), abs(got))
+                diffs["max_rel"] = max(diffs["max_rel"], abs(want - got) / scale if scale else 0.0)
+            if not math.isclose(got, want, rel_tol=rel, abs_tol=abs_tol):
+                diffs["problems"].append(f"{path}: {got!r} != {want!r}")
+    elif isinstance(want, list):
+        if not isinstance(got, list) or len(got) != len(want):
+            diffs["problems"].append(f"{path}: list of {len(want)} expected, got {got!r:.80}")
+        else:
+            for i, (g, w) in enumerate(zip(got, want)):
+                compare_json(g, w, f"{path}[{i}]", rel, abs_tol, diffs)
+    elif isinstance(want, dict):
+        if not isinstance(got, dict) or set(got) != set(want):
+            diffs["problems"].append(f"{path}: keys differ: {sorted(set(got or {}) ^ set(want))}")
+        else:
+            for key in want:
+                compare_json(got[key], want[key], f"{path}.{key}", rel, abs_tol, diffs)
+    else:
+        diffs["problems"].append(f"{path}: unexpected type {type(want).__name__}")
+    return diffs

@@ -8,6 +8,7 @@ other origin and fetches only files the build ships.
 
 from __future__ import annotations
 
+import json
 import math
 import time
 from urllib.parse import urlsplit
@@ -15,10 +16,15 @@ from urllib.parse import urlsplit
 import pytest
 
 from .browser_support import (
+    FAULT_ONCE_JS,
     LAUNCH_ARGS,
+    PROBE_JS,
+    compare_json,
+    engine_config,
     find_chromium,
     load_build_module,
     parse_shown_number,
+    probe_worker,
     serve_directory,
 )
 
@@ -126,7 +132,7 @@ def test_demo_result_matches_cpython_and_stays_on_origin(built_site, browser):
 
     # Nothing outside the page's own origin, and only files the build ships.
     origin = urlsplit(built_site["url"])
-    shipped = {entry["path"] for entry in built_site["manifest"]["files"]}
+    shipped = {entry["path"] for entry in built_site["manifest"]["files"]} | {"manifest.json"}
     assert requests, "no requests were recorded"
     foreign = sorted({u for u in requests if urlsplit(u)[:2] != origin[:2]})
     assert not foreign, f"requests left the page's origin: {foreign}"
@@ -150,3 +156,121 @@ def test_page_reports_failure_readably(built_site, browser):
     assert "engine" in message.lower() and len(message) > 20, message
     assert page.locator("#results").is_hidden()
     page_context.close()
+
+
+# --------------------------------------------------------------------------
+# the engine in the browser against CPython, and recovery after a failure
+
+
+@pytest.fixture(scope="module")
+def probe(built_site, browser):
+    """A page of the site's origin running a second instance of worker.js, driven directly."""
+    context = browser.new_context()
+    page = context.new_page()
+    page.goto(built_site["url"] + "manifest.json")  # any document of the origin will do
+    timings = page.evaluate(PROBE_JS, engine_config(built_site["manifest"]))
+    print(f"\nprobe worker ready: {timings}")
+
+    def call(request: dict) -> dict:
+        reply = page.evaluate("(r) => window.__probe.call(r)", json.dumps(request))
+        return json.loads(reply["response"])
+
+    yield {"page": page, "call": call}
+    context.close()
+
+
+# Tolerance for CPython against Pyodide. Both run the same Python code on IEEE-754
+# doubles; the only known source of difference is the C maths library (glibc here,
+# musl in Emscripten), whose exp/log/pow may differ in the last bit, and iterative
+# solvers can carry such a bit a little further. rel 1e-9 / abs 1e-12 is far
+# below anything shown (3 significant decimals at most) and far above one bit.
+REL_TOL = 1e-9
+ABS_TOL = 1e-12
+
+
+def test_every_demo_gives_the_same_numbers_in_pyodide_and_cpython(built_site, probe):
+    from calc.api import handle
+
+    assert built_site["demos"], "no demo jobs"
+    worst = 0.0
+    for demo in built_site["demos"]:
+        request = {"op": "evaluate", "job": demo["job"]}
+        got = probe["call"](request)
+        # Source: the same entry point run in CPython on the same request is the reference.
+        want = json.loads(handle(json.dumps(request)))
+        assert want["ok"], (demo["file"], want.get("errors"))
+        diffs = compare_json(got, want, f"{demo['file']}", rel=REL_TOL, abs_tol=ABS_TOL)
+        assert not diffs["problems"], "\n".join(diffs["problems"][:20])
+        worst = max(worst, diffs["max_rel"])
+    print(f"largest relative difference Pyodide vs CPython over {len(built_site['demos'])} demos: {worst:.3g}")
+
+
+def test_worker_recovers_after_an_engine_failure(built_site, probe):
+    demo = built_site["demos"][0]["job"]
+    request = {"op": "evaluate", "job": demo}
+    probe_worker(probe["page"]).evaluate(FAULT_ONCE_JS)
+    failed = probe["call"](request)
+    assert failed["ok"] is False
+    message = failed["errors"][0]["message"]
+    assert "simulated engine fault" in message and "Traceback" not in message, message
+    # The very next request computes again, with the same numbers as before the failure.
+    again = probe["call"](request)
+    assert again["ok"] is True, again.get("errors")
+    # Source: CPython on the same request is the reference.
+    from calc.api import handle
+    want = json.loads(handle(json.dumps(request)))
+    assert not compare_json(again, want, rel=REL_TOL, abs_tol=ABS_TOL)["problems"]
+
+
+def test_worker_answers_hostile_requests_and_keeps_working(built_site, probe):
+    """Bad job files reach the engine as text; each gets a clear error and nothing breaks."""
+    page = probe["page"]
+    job = built_site["demos"][0]["job"]
+    good = json.dumps({"op": "evaluate", "job": job})
+    for label, text in [
+        ("malformed JSON", good[:-7]),
+        ("wrong version", json.dumps({"op": "evaluate", "job": {**job, "version": 99}})),
+        ("infinite number", good.replace('"version": 1', '"version": 1e999', 1)),
+        ("deep nesting", '{"op": "evaluate", "job": ' + "[" * 100_000 + "]" * 100_000 + "}"),
+        ("enormous", json.dumps({"op": "evaluate", "job": {**job, "name": "x" * 3_000_000}})),
+    ]:
+        reply = json.loads(page.evaluate("(r) => window.__probe.call(r)", text)["response"])
+        assert reply["ok"] is False and reply["errors"], label
+        for error in reply["errors"]:
+            assert isinstance(error["path"], str) and error["message"], (label, error)
+            assert "Traceback" not in error["message"], (label, error)
+    assert probe["call"]({"op": "evaluate", "job": job})["ok"] is True
+
+
+MARKUP_NAME = '<img src=x onerror="window.__linesmithInjected=1">'
+
+
+def _tojson(value):
+    # What jinja2's tojson filter writes for a string in the page.
+    return (json.dumps(value).replace("<", "\\u003c").replace(">", "\\u003e")
+            .replace("&", "\\u0026").replace("'", "\\u0027"))
+
+
+def test_job_name_with_markup_is_shown_as_text(built_site, browser):
+    """A job whose name is markup: the page shows the literal text; no element, no script."""
+    demo = built_site["demos"][0]["job"]
+    context = browser.new_context()
+
+    def page_with_markup_name(route):
+        html = route.fetch().text()
+        assert _tojson(demo["name"]) in html, "the demo's name is not in the page's data"
+        route.fulfill(status=200, content_type="text/html; charset=utf-8",
+                      headers={"Content-Security-Policy": built_site["build"].CONTENT_SECURITY_POLICY},
+                      body=html.replace(_tojson(demo["name"]), _tojson(MARKUP_NAME)))
+
+    context.route(built_site["url"], page_with_markup_name)
+    page = context.new_page()
+    console = []
+    page.on("console", lambda message: console.append(f"{message.type}: {message.text}"))
+    page.goto(built_site["url"])
+    _wait_for_engine(page, console)
+    assert page.evaluate("document.querySelectorAll('img[src=\"x\"], img[onerror]').length") == 0
+    assert page.evaluate("window.__linesmithInjected") is None
+    shown = page.evaluate("document.body.innerText + '\\n' + document.title")
+    assert MARKUP_NAME in shown, "the name is not shown as literal text"
+    context.close()
