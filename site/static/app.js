@@ -1,22 +1,32 @@
-// Linesmith page: starts the engine worker, runs the demo job, shows the result.
+// Linesmith page: the job form, live results from the engine worker, plots, build sheet,
+// saved jobs. The job is kept in engine units; the unit switch changes only what is shown.
 // Text from a job (names typed by a user) is always inserted with textContent.
+import { clone, el, readJSON } from "./js/util.js";
+import { getSystem, setSystem, unitLabel } from "./js/units.js";
+import { assignStaticPaths, fillAll, initForm, localErrors, refreshUnitLabels, showErrors } from "./js/form.js";
+import { renderPlots, renderProblems, renderResult, setCautions, sweepJob } from "./js/results.js";
+import { renderSheet } from "./js/sheet.js";
+import { autosave, readJobFile, restore, saveFile, UNITS_KEY } from "./js/storage.js";
 
 const body = document.body;
 const statusText = document.getElementById("status-text");
 const statusBar = document.getElementById("status-progress");
 const resultsSection = document.getElementById("results");
-const resultsBody = document.getElementById("results-body");
+const fileMessage = document.getElementById("file-message");
 
-function readJSON(id) {
-  return JSON.parse(document.getElementById(id).textContent);
-}
+const DEBOUNCE_MS = 250;
+const model = readJSON("linesmith-model");
+const demos = readJSON("linesmith-demos");
+setCautions(readJSON("linesmith-cautions"));
 
-function el(tag, attrs = {}, text) {
-  const node = document.createElement(tag);
-  for (const [key, value] of Object.entries(attrs)) node.setAttribute(key, value);
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
+const state = {
+  job: null,
+  rev: 0,            // bumped on every edit of the job
+  result: null,      // last result that computed
+  resultRev: -1,
+  errors: [],
+  sweep: null,       // {rev, result | error, rpm}
+};
 
 function setStatus(text, percent) {
   statusText.textContent = text;
@@ -38,97 +48,246 @@ function fail(message, details = []) {
   }
 }
 
-// Shown figures: decimals per quantity. The browser test reads these back and
-// uses half a unit of the last digit as its tolerance.
-const DECIMALS = {
-  pump_flow_lpm: 2,
-  pump_outlet_bar: 2,
-  viscosity_cst: 2,
-  velocity_max_m_s: 2,
-  reynolds_min: 0,
-  pressure_drop_bar: 3,
-};
-
-function fmt(value, field) {
-  if (typeof value !== "number" || !Number.isFinite(value)) return "–";
-  return value.toFixed(DECIMALS[field]);
+function showFileMessage(text, ok = false, details = []) {
+  fileMessage.replaceChildren(el("p", {}, text));
+  if (details.length) {
+    const ul = el("ul");
+    for (const d of details) ul.append(el("li", {}, d));
+    fileMessage.append(ul);
+  }
+  const close = el("button", { type: "button", class: "dismiss" }, "Dismiss");
+  close.addEventListener("click", () => { fileMessage.hidden = true; });
+  fileMessage.append(close);
+  fileMessage.className = ok ? "file-message ok" : "file-message bad";
+  fileMessage.hidden = false;
 }
 
-function numberCell(tag, value, field) {
-  return el(tag, { class: "num", "data-field": field }, fmt(value, field));
-}
+// ---------------------------------------------------------------- engine worker
 
-function renderResult(result) {
-  resultsBody.replaceChildren();
-  (result.conditions || []).forEach((condition, ci) => {
-    const block = el("article", { class: "condition", "data-condition": String(ci) });
-    block.append(el("h3", { class: "condition-name" }, condition.name));
+let worker = null;
+let nextId = 1;
+const pending = new Map();
 
-    const summary = el("dl", { class: "condition-summary" });
-    for (const [label, field, unit] of [
-      ["Pump flow", "pump_flow_lpm", "L/min"],
-      ["Pump outlet pressure", "pump_outlet_bar", "bar"],
-      ["Fluid viscosity", "viscosity_cst", "cSt"],
-    ]) {
-      const dd = el("dd");
-      dd.append(numberCell("span", condition[field], field), ` ${unit}`);
-      summary.append(el("dt", {}, label), dd);
-    }
-    block.append(summary);
-
-    const table = el("table", { class: "lines" });
-    const head = el("tr");
-    for (const text of ["Line", "Role", "Velocity, max (m/s)", "Reynolds number, min", "Pressure drop (bar)"]) {
-      head.append(el("th", { scope: "col" }, text));
-    }
-    table.append(el("thead"), el("tbody"));
-    table.tHead.append(head);
-    (condition.lines || []).forEach((line, li) => {
-      const row = el("tr", { "data-line": String(li) });
-      row.append(el("th", { scope: "row", class: "line-name" }, line.name), el("td", {}, line.role));
-      row.append(
-        numberCell("td", line.velocity_max_m_s, "velocity_max_m_s"),
-        numberCell("td", line.reynolds_min, "reynolds_min"),
-        numberCell("td", line.pressure_drop_bar, "pressure_drop_bar"),
-      );
-      table.tBodies[0].append(row);
-    });
-    block.append(table);
-    resultsBody.append(block);
+function call(request) {
+  const id = nextId++;
+  return new Promise((resolve) => {
+    pending.set(id, resolve);
+    worker.postMessage(JSON.stringify({ type: "call", id, request: JSON.stringify(request) }));
   });
-  resultsSection.hidden = false;
 }
+
+let timer = null;
+let inflight = false;
+let again = false;
+let sweepTimer = null;
+
+function schedule(delay = DEBOUNCE_MS) {
+  body.dataset.jobRev = String(state.rev);
+  clearTimeout(timer);
+  timer = setTimeout(recalc, delay);
+}
+
+async function recalc() {
+  if (body.dataset.engine === "failed" || !worker || body.dataset.engine === "loading" && !state.ready) return;
+  if (inflight) { again = true; return; }
+  inflight = true;
+  body.dataset.busy = "true";
+  const rev = state.rev;
+  const job = clone(state.job);
+  const t0 = performance.now();
+  const reply = await call({ op: "evaluate", job });
+  const ms = performance.now() - t0;
+  inflight = false;
+  if (again || rev !== state.rev) { // stale: a newer edit is waiting
+    again = false;
+    recalc();
+    return;
+  }
+  body.dataset.lastCalcMs = String(Math.round(ms));
+  if (reply.ok) {
+    state.result = reply.result;
+    state.resultJob = job;
+    state.errors = [];
+  } else {
+    state.errors = reply.errors || [];
+  }
+  state.resultRev = rev;
+  show();
+  body.dataset.resultRev = String(rev);
+  body.dataset.busy = "false";
+  document.getElementById("results-state").textContent = reply.ok
+    ? `(computed in ${Math.round(ms)} ms)` : "(not updated: fix the problems listed)";
+  if (body.dataset.engine !== "ready" && state.result) {
+    const seconds = ((performance.now() - state.started) / 1000).toFixed(1);
+    setStatus(`Engine ready (first result in ${seconds} s).`, 100);
+    statusBar.hidden = true;
+    body.dataset.bootMs = String(Math.round(performance.now() - state.started));
+    body.dataset.engine = "ready";
+  } else if (body.dataset.engine !== "ready" && !reply.ok) {
+    setStatus("The job has problems; fix the fields marked in the form.", 100);
+    body.dataset.engine = "ready";
+  }
+  if (reply.ok) {
+    clearTimeout(sweepTimer);
+    sweepTimer = setTimeout(() => runSweep(rev), 400);
+  }
+}
+
+async function runSweep(rev) {
+  if (inflight || rev !== state.rev || !state.result) return;
+  const { job, rpm } = sweepJob(state.resultJob, state.result.conditions);
+  inflight = true;
+  const reply = await call({ op: "evaluate", job });
+  inflight = false;
+  if (again) { again = false; recalc(); }
+  if (rev !== state.rev) return; // stale
+  state.sweep = reply.ok ? { rev, rpm, result: reply.result }
+    : { rev, rpm, error: (reply.errors || []).map((e) => `${e.path}: ${e.message}`).join("; ") };
+  if (state.result) renderPlots(state.result, state.resultJob, state.sweep, model.default_conditions);
+  body.dataset.sweepRev = String(rev);
+}
+
+function show() {
+  showErrors(state.errors);
+  renderProblems(state.errors, localErrors());
+  if (state.result) {
+    renderResult(state.result, state.resultJob);
+    const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
+    renderPlots(state.result, state.resultJob, sweep, model.default_conditions);
+    renderSheet(state.resultJob, state.result);
+    resultsSection.hidden = false;
+  }
+}
+
+function changed({ structural, recalc: needsCalc }) {
+  if (needsCalc) {
+    state.rev += 1;
+    autosave(state.job);
+    schedule();
+  } else {
+    renderProblems(state.errors, localErrors());
+  }
+  body.dataset.jobRev = String(state.rev);
+  if (structural) body.dataset.structure = String(Number(body.dataset.structure || 0) + 1);
+}
+
+function loadJob(job) {
+  state.job = job;
+  state.rev += 1;
+  state.sweep = null;
+  fillAll();
+  autosave(state.job);
+  schedule(0);
+}
+
+// ---------------------------------------------------------------- toolbar
+
+function setUnits(system) {
+  setSystem(system);
+  body.dataset.units = getSystem();
+  try { localStorage.setItem(UNITS_KEY, getSystem()); } catch { /* private mode */ }
+  for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
+  fillAll();
+  if (state.result) show();
+}
+
+function toolbar() {
+  for (const r of document.querySelectorAll('input[name="units"]')) {
+    r.addEventListener("change", () => { if (r.checked) setUnits(r.value); });
+  }
+  document.getElementById("demo-load").addEventListener("click", () => {
+    const i = Number(document.getElementById("demo-select").value);
+    loadJob(clone(demos[i].job));
+    showFileMessage(`Loaded the demo job "${demos[i].job.name || demos[i].file}".`, true);
+  });
+  document.getElementById("job-save").addEventListener("click", () => saveFile(state.job));
+  document.getElementById("sheet-print").addEventListener("click", () => window.print());
+  const input = document.getElementById("job-open");
+  input.addEventListener("change", async () => {
+    const file = input.files && input.files[0];
+    input.value = "";
+    if (!file) return;
+    const read = await readJobFile(file, model.version);
+    if (read.error) { showFileMessage(`Not opened: ${read.error} The current job is unchanged.`); return; }
+    if (!worker || body.dataset.engine !== "ready") { showFileMessage("Not opened: the engine is still starting; try again in a moment."); return; }
+    const reply = await call({ op: "evaluate", job: read.job });
+    if (!reply.ok) {
+      showFileMessage(`Not opened: ${file.name} has problems the engine reports below. The current job is unchanged.`, false,
+        (reply.errors || []).map((e) => (e.path ? `${e.path}: ${e.message}` : e.message)));
+      return;
+    }
+    loadJob(read.job);
+    showFileMessage(`Opened ${file.name}.`, true);
+  });
+  // thread identification
+  document.getElementById("thr-go").addEventListener("click", identifyThread);
+}
+
+async function identifyThread() {
+  const out = document.getElementById("thr-out");
+  out.replaceChildren();
+  const majorText = document.getElementById("thr-major").value.trim().replace(",", ".");
+  const pitchText = document.getElementById("thr-pitch").value.trim().replace(",", ".");
+  const major = Number(majorText), pitch = Number(pitchText);
+  if (!majorText || !Number.isFinite(major) || major <= 0 || !pitchText || !Number.isFinite(pitch) || pitch <= 0) {
+    out.append(el("p", { class: "error" }, "Give the measured diameter and the pitch as positive numbers."));
+    return;
+  }
+  const majorMm = getSystem() === "us" ? major * 25.4 : major;
+  const pitchMm = document.getElementById("thr-pitch-unit").value === "tpi" ? 25.4 / pitch : pitch;
+  const taper = document.getElementById("thr-taper").value;
+  const args = { major_mm: majorMm, pitch_mm: pitchMm, male: document.getElementById("thr-male").value === "true",
+    tapered: taper === "" ? null : taper === "true" };
+  const reply = await call({ op: "thread", args });
+  if (!reply.ok) {
+    out.append(el("p", { class: "error" }, (reply.errors || []).map((e) => `${e.path}: ${e.message}`).join("; ")));
+    return;
+  }
+  const res = reply.result;
+  const table = el("table", { class: "thr-table" });
+  table.append(el("thead", {}, el("tr", {}, ...["Thread", "Fits", `Diameter off by (${unitLabel("length_mm")})`, "Used by", "Seals"].map((t) => el("th", { scope: "col" }, t)))));
+  const tb = el("tbody");
+  for (const c of res.candidates || []) {
+    const off = getSystem() === "us" ? (c.fit_error_mm / 25.4).toFixed(4) : c.fit_error_mm.toFixed(2);
+    tb.append(el("tr", {}, el("td", {}, c.thread), el("td", {}, c.within ? "yes" : "no (nearest)"), el("td", { class: "num" }, off),
+      el("td", {}, (c.ends || []).join("; ")), el("td", {}, (c.seals || []).join("; "))));
+  }
+  table.append(tb);
+  out.append(table);
+  if (res.tolerance) out.append(el("p", { class: "small" }, `Tolerance: ${res.tolerance.source || ""}`));
+}
+
+// ---------------------------------------------------------------- start
 
 function startEngine() {
   const config = readJSON("linesmith-config");
-  const demo = readJSON("linesmith-demo");
-  document.getElementById("job-name").textContent = (demo && demo.name) || "(unnamed)";
+  let saved = null;
+  try { saved = localStorage.getItem(UNITS_KEY); } catch { /* private mode */ }
+  if (saved === "us") { setSystem("us"); body.dataset.units = "us"; }
+  for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
 
-  let worker;
+  const restored = restore();
+  state.job = restored || clone(demos.length ? demos[0].job : readJSON("linesmith-demo"));
+  state.restored = Boolean(restored);
+  assignStaticPaths();
+  initForm(model, state, changed);
+  fillAll();
+  toolbar();
+
   try {
     worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
   } catch (error) {
     fail(`This browser cannot start the engine worker (${error.message}).`);
     return;
   }
-  const started = performance.now();
-  let nextId = 1;
-  const pending = new Map();
-
-  function call(request) {
-    const id = nextId++;
-    return new Promise((resolve) => {
-      pending.set(id, resolve);
-      worker.postMessage(JSON.stringify({ type: "call", id, request: JSON.stringify(request) }));
-    });
-  }
+  state.started = performance.now();
 
   worker.onerror = (event) => {
     event.preventDefault();
     fail(`The engine worker stopped: ${event.message || "it could not be loaded"}.`);
   };
 
-  worker.onmessage = async (event) => {
+  worker.onmessage = (event) => {
     const message = JSON.parse(event.data);
     if (message.type === "progress") {
       setStatus(message.text, message.percent);
@@ -140,19 +299,9 @@ function startEngine() {
       if (resolve) resolve(JSON.parse(message.response));
     } else if (message.type === "ready") {
       body.dataset.workerTimings = JSON.stringify(message.timings_ms);
-      setStatus("Calculating the demo job…", 95);
-      const reply = await call({ op: "evaluate", job: demo });
-      if (!reply.ok) {
-        fail("The engine could not evaluate the demo job:",
-          (reply.errors || []).map((e) => (e.path ? `${e.path}: ${e.message}` : e.message)));
-        return;
-      }
-      renderResult(reply.result);
-      const seconds = ((performance.now() - started) / 1000).toFixed(1);
-      setStatus(`Engine ready (started in ${seconds} s).`, 100);
-      statusBar.hidden = true;
-      body.dataset.bootMs = String(Math.round(performance.now() - started));
-      body.dataset.engine = "ready";
+      setStatus(state.restored ? "Calculating the job saved in this browser…" : "Calculating the demo job…", 95);
+      state.ready = true;
+      schedule(0);
     }
   };
 

@@ -1,0 +1,320 @@
+// Results: per-line verdicts, checks in words, tables per part and operating point,
+// node pressures, rating with margins and cautions, hose candidates, thermal, plots.
+import { badge, el, worstVerdict } from "./util.js";
+import { fmt, fmtDiff, toShow, unitLabel } from "./units.js";
+import { lineChart } from "./plots.js";
+
+let CAUTIONS = [];
+export function setCautions(list) { CAUTIONS = list; }
+
+const U = (kind) => unitLabel(kind);
+function numCell(tag, value, kind, field, decimals) {
+  return el(tag, { class: "num", "data-field": field }, fmt(value, kind, decimals));
+}
+
+export function cautionsList(cls = "cautions") {
+  const box = el("div", { class: cls });
+  box.append(el("p", { class: "cautions-title" }, "Cautions"));
+  const ul = el("ul");
+  for (const c of CAUTIONS) ul.append(el("li", {}, c));
+  box.append(ul);
+  return box;
+}
+
+function partLabel(job, li, k) {
+  const p = ((job.lines || [])[li] || {}).parts?.[k] || {};
+  const bits = [p.kind || "part"];
+  if (p.class) bits.push(`${p.class}${p.dash ? ` -${p.dash}` : ""}`);
+  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm")} x ${fmt(p.wall_mm, "length_mm")} ${U("length_mm")}`);
+  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm")} ${U("length_mm")} bore`);
+  if (p.shape && p.shape !== "straight") bits.push(p.shape);
+  return `${k}: ${bits.join(" ")}`;
+}
+
+function ratingBlock(rating) {
+  const box = el("div", { class: "rating" });
+  if (!rating) return box;
+  const P = U("pressure_bar");
+  const dl = el("dl", { class: "kv" });
+  const row = (label, node) => dl.append(el("dt", {}, label), el("dd", {}, node));
+  const pressure = (v, field) => {
+    const span = el("span", {}, numCell("span", v, "pressure_bar", field, [1, 0]), v == null ? " (no rating known)" : ` ${P}`);
+    return span;
+  };
+  row("Assembly working pressure", pressure(rating.working_bar, "working_bar"));
+  row("Assembly burst pressure", pressure(rating.burst_bar, "burst_bar"));
+  row("Must hold", el("span", {}, numCell("span", rating.required_bar, "pressure_bar", "required_bar", [1, 0]), ` ${P} (${rating.required_basis || ""})`));
+  row("Working margin (working / must hold)", el("span", {}, numCell("span", rating.margin, null, "margin", 2)));
+  row(`Burst margin against ${rating.design_factor}:1`, el("span", {},
+    numCell("span", rating.burst_margin, null, "burst_margin", 1), rating.burst_margin == null ? "" : ":1"));
+  const wp = rating.weakest_part;
+  row("Weakest part", wp ? `part ${wp.index}, ${wp.description}` : "none rated");
+  if (rating.unrated_parts && rating.unrated_parts.length) row("Parts with no rating", rating.unrated_parts.map((i) => `part ${i}`).join(", "));
+  box.append(el("h4", {}, "Rating"), dl, cautionsList());
+  return box;
+}
+
+function checksBlock(checks) {
+  const box = el("div", { class: "checks" });
+  const bad = checks.filter((c) => c.verdict !== "ok");
+  const good = checks.filter((c) => c.verdict === "ok");
+  if (bad.length) {
+    const ul = el("ul", { class: "check-list" });
+    for (const c of bad) ul.append(el("li", { "data-check": c.check, "data-verdict": c.verdict }, badge(c.verdict), " ", el("strong", {}, `${c.check}: `), c.message));
+    box.append(ul);
+  } else {
+    box.append(el("p", {}, "Every check passes."));
+  }
+  if (good.length) {
+    const det = el("details", { class: "passed" }, el("summary", {}, `${good.length} check${good.length > 1 ? "s" : ""} passed`));
+    const ul = el("ul", { class: "check-list" });
+    for (const c of good) ul.append(el("li", { "data-check": c.check, "data-verdict": "ok" }, badge("ok"), " ", el("strong", {}, `${c.check}: `), c.message));
+    det.append(ul);
+    box.append(det);
+  }
+  return box;
+}
+
+function partsTable(result, job, li) {
+  const table = el("table", { class: "parts-table", "data-line": String(li) });
+  const head = el("tr");
+  for (const t of ["Part", `Velocity (${U("speed_m_s")})`, "Re", "Regime", `Drop (${U("pressure_bar")})`,
+    `Temp. rise (${U("temp_diff_c")})`, `Pressure after (${U("pressure_bar")})`]) head.append(el("th", { scope: "col" }, t));
+  table.append(el("thead", {}, head));
+  result.conditions.forEach((cond, ci) => {
+    const line = cond.lines[li];
+    if (!line) return;
+    const tb = el("tbody", { "data-condition": String(ci) });
+    const inlet = (line.nodes || []).find((n) => n.after_part === -1);
+    const hr = el("tr", { class: "cond-row" });
+    hr.append(el("th", { colspan: "4", scope: "rowgroup" }, `${cond.name}: ${fmt(line.flow_lpm, "flow_lpm")} ${U("flow_lpm")}, ${fmt(cond.viscosity_cst, "viscosity_cst")} cSt`),
+      numCell("td", line.pressure_drop_bar, "pressure_bar", "line_drop_bar", [3, 2]),
+      el("td", { class: "num" }, fmtDiff(line.temp_rise_c, "temp_diff_c")),
+      el("td", { class: "num" }, inlet ? `in ${fmt(inlet.pressure_bar, "pressure_bar")}` : ""));
+    tb.append(hr);
+    (line.parts || []).forEach((part, k) => {
+      const node = (line.nodes || []).find((n) => n.after_part === k);
+      const tr = el("tr", { "data-part": String(k) });
+      tr.append(el("th", { scope: "row" }, partLabel(job, li, k)),
+        numCell("td", part.velocity_m_s, "speed_m_s", "velocity_m_s"),
+        numCell("td", part.reynolds, null, "reynolds", 0),
+        el("td", { "data-field": "regime" }, part.regime || ""),
+        numCell("td", part.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
+        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(part.temp_rise_c, "temp_diff_c", 3)),
+        numCell("td", node ? node.pressure_bar : null, "pressure_bar", "node_bar"));
+      tb.append(tr);
+    });
+    table.append(tb);
+  });
+  return el("div", { class: "table-wrap" }, table);
+}
+
+function candidatesBlock(cands) {
+  const det = el("details", { class: "candidates" });
+  const ok = cands.filter((c) => c.verdict !== "fail");
+  det.append(el("summary", {}, `Hose candidates: ${ok.length} pass of ${cands.length} (smallest, then lightest first)`));
+  const table = el("table", { class: "cand-table" });
+  const head = el("tr");
+  for (const t of ["#", "Class", "Dash", `Bore (${U("length_mm")})`, "Verdict", `Velocity max (${U("speed_m_s")})`,
+    `Drop (${U("pressure_bar")})`, `Working (${U("pressure_bar")})`, "Why not"]) head.append(el("th", { scope: "col" }, t));
+  table.append(el("thead", {}, head));
+  const tb = el("tbody");
+  cands.forEach((c, i) => {
+    tb.append(el("tr", { "data-candidate": String(i) },
+      el("td", { class: "num" }, String(i + 1)), el("td", {}, c.class), el("td", {}, `-${c.dash}`),
+      numCell("td", c.bore_mm, "length_mm", "bore_mm", [2, 3]), el("td", {}, badge(c.verdict)),
+      numCell("td", c.velocity_max_m_s, "speed_m_s", "velocity_max_m_s"),
+      numCell("td", c.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
+      numCell("td", c.working_bar, "pressure_bar", "working_bar", [0, 0]),
+      el("td", {}, (c.reasons || []).join("; "))));
+  });
+  table.append(tb);
+  det.append(el("div", { class: "table-wrap" }, table));
+  return det;
+}
+
+function lineCards(result, job) {
+  const box = document.getElementById("line-results");
+  box.replaceChildren();
+  (result.lines || []).forEach((line, li) => {
+    const verdict = worstVerdict(line.checks);
+    const card = el("article", { class: `line-card verdict-${verdict}`, "data-line-card": String(li) });
+    card.append(el("h3", { class: "line-title" }, badge(verdict), " ", el("span", { class: "line-card-name" }, line.name || `line ${li + 1}`), ` (${line.role})`));
+    card.append(checksBlock(line.checks || []));
+    card.append(ratingBlock(line.rating));
+    card.append(el("h4", {}, "Per part and operating point"), partsTable(result, job, li));
+    if (line.candidates && line.candidates.length) card.append(candidatesBlock(line.candidates));
+    box.append(card);
+  });
+}
+
+function thermalBlock(result) {
+  const box = document.getElementById("thermal-results");
+  box.replaceChildren();
+  const th = result.thermal;
+  const card = el("article", { class: "thermal-card" });
+  card.append(el("h3", {}, th ? badge(th.verdict) : badge("caution"), " Fluid temperature"));
+  if (!th) {
+    card.append(el("p", {}, "This engine build returns no thermal section; the heat per operating point is shown below."));
+    box.append(card);
+    return;
+  }
+  const dl = el("dl", { class: "kv" });
+  const row = (label, node) => dl.append(el("dt", {}, label), el("dd", {}, node));
+  const T = U("temp_c");
+  row("Steady temperature", th.steady_temp_c == null ? "not found" : el("span", {}, numCell("span", th.steady_temp_c, "temp_c", "steady_temp_c"), ` ${T}`));
+  row("Fluid limit", el("span", {}, numCell("span", th.limit_c, "temp_c", "limit_c"), ` ${T}`));
+  row("Full lock: time to the limit", th.full_lock_seconds_to_limit == null ? "not reached in the hold shown"
+    : el("span", {}, numCell("span", th.full_lock_seconds_to_limit, "time_s", "full_lock_seconds_to_limit"), " s"));
+  row("Cooler needed", th.cooler_needed_w_per_k == null ? "–" : (th.cooler_needed_w_per_k === 0 ? "none"
+    : el("span", {}, numCell("span", th.cooler_needed_w_per_k, "conductance_w_k", "cooler_needed_w_per_k"), ` ${U("conductance_w_k")}`)));
+  card.append(dl, checksBlock(th.checks || []));
+  box.append(card);
+}
+
+function conditionBlocks(result) {
+  // one block per operating point (kept for the engine-boot browser test's selectors)
+  const body = document.getElementById("results-body");
+  body.replaceChildren();
+  (result.conditions || []).forEach((condition, ci) => {
+    const block = el("article", { class: "condition", "data-condition": String(ci) });
+    block.append(el("h4", { class: "condition-name" }, condition.name));
+    const summary = el("dl", { class: "condition-summary" });
+    for (const [label, field, kind, dec] of [
+      ["Pump flow", "pump_flow_lpm", "flow_lpm"],
+      ["Pump outlet pressure", "pump_outlet_bar", "pressure_bar", [2, 1]],
+      ["Pump inlet pressure", "pump_inlet_bar", "pressure_bar", [2, 1]],
+      ["Fluid viscosity", "viscosity_cst", "viscosity_cst"],
+      ["Heat generated", "heat_w", "power_w"],
+    ]) {
+      if (condition[field] === undefined) continue;
+      const dd = el("dd");
+      dd.append(numCell("span", condition[field], kind, field, dec), ` ${U(kind)}`);
+      summary.append(el("dt", {}, label), dd);
+    }
+    summary.append(el("dt", {}, "Relief valve"), el("dd", {}, condition.relief_open ? "open" : "closed"));
+    block.append(summary);
+    const table = el("table", { class: "lines" });
+    const head = el("tr");
+    for (const text of ["Line", "Role", `Velocity, max (${U("speed_m_s")})`, "Reynolds number, min",
+      `Pressure drop (${U("pressure_bar")})`, `Temp. rise (${U("temp_diff_c")})`]) head.append(el("th", { scope: "col" }, text));
+    table.append(el("thead", {}, head), el("tbody"));
+    (condition.lines || []).forEach((line, li) => {
+      const row = el("tr", { "data-line": String(li) });
+      row.append(el("th", { scope: "row", class: "line-name" }, line.name), el("td", {}, line.role),
+        numCell("td", line.velocity_max_m_s, "speed_m_s", "velocity_max_m_s"),
+        numCell("td", line.reynolds_min, null, "reynolds_min", 0),
+        numCell("td", line.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
+        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(line.temp_rise_c, "temp_diff_c", 3)));
+      table.tBodies[0].append(row);
+    });
+    block.append(el("div", { class: "table-wrap" }, table));
+    body.append(block);
+  });
+}
+
+function warningsBlock(result) {
+  const box = document.getElementById("warnings");
+  box.replaceChildren();
+  const w = result.warnings || [];
+  if (!w.length) return;
+  box.append(el("h3", {}, "Warnings"));
+  const ul = el("ul", { class: "warn-list" });
+  for (const x of w) ul.append(el("li", {}, x.path ? `${x.path}: ${x.message}` : x.message));
+  box.append(ul);
+}
+
+export function renderResult(result, job) {
+  lineCards(result, job);
+  thermalBlock(result);
+  conditionBlocks(result);
+  warningsBlock(result);
+}
+
+export function renderProblems(errors, localErrors) {
+  const box = document.getElementById("problems");
+  box.replaceChildren();
+  const all = [...(localErrors || []), ...(errors || [])];
+  box.hidden = all.length === 0;
+  if (!all.length) return;
+  box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; the results below are for the last job that computed:`));
+  const ul = el("ul");
+  for (const e of all) ul.append(el("li", { "data-path": e.path || "" }, e.path ? `${e.path}: ${e.message}` : e.message));
+  box.append(ul);
+}
+
+// ---------------------------------------------------------------- plots
+
+export function flowCurve(pump, rpmMax) {
+  const pts = [];
+  const ratio = pump.pulley_ratio ?? 1.0, eta = pump.volumetric_efficiency ?? 0.9;
+  if (typeof pump.displacement_cc_rev !== "number" || typeof pump.flow_limit_lpm !== "number") return pts;
+  const n = 40;
+  for (let i = 0; i <= n; i++) {
+    const rpm = (rpmMax * i) / n;
+    // Q = displacement x engine speed x pulley ratio x volumetric efficiency, capped (calc/pump.py)
+    const q = Math.min(pump.displacement_cc_rev * rpm * ratio * eta / 1000, pump.flow_limit_lpm);
+    pts.push([rpm, toShow(q, "flow_lpm")]);
+  }
+  return pts;
+}
+
+export function sweepJob(job, conditions) {
+  const temps = conditions.map((c) => c.fluid_temp_c);
+  const lo = Math.min(...temps), hi = Math.max(...temps, lo + 20);
+  const running = conditions.filter((c) => !c.full_lock);
+  const rpm = Math.max(...(running.length ? running : conditions).map((c) => c.engine_rpm));
+  const n = 8;
+  const sweep = [];
+  for (let i = 0; i <= n; i++) {
+    const t = lo + ((hi - lo) * i) / n;
+    sweep.push({ name: `sweep ${i}`, engine_rpm: rpm, fluid_temp_c: Number(t.toFixed(3)), full_lock: false, duty_percent: 0 });
+  }
+  return { job: { ...job, conditions: sweep }, rpm };
+}
+
+export function renderPlots(result, job, sweep, defaults) {
+  const box = document.getElementById("plots");
+  box.replaceChildren();
+  box.append(el("h3", {}, "Plots"));
+  const grid = el("div", { class: "plot-grid" });
+  const P = U("pressure_bar"), T = U("temp_c"), Q = U("flow_lpm");
+  if (sweep && sweep.result) {
+    const r = sweep.result;
+    const series = (r.lines || []).map((line, li) => ({
+      name: line.name || `line ${li + 1}`,
+      points: r.conditions.map((c) => [toShow(c.fluid_temp_c, "temp_c"), toShow(c.lines[li].pressure_drop_bar, "pressure_bar")]),
+    }));
+    grid.append(el("figure", { class: "plot" }, lineChart({
+      id: "drop-vs-temp", title: `Pressure drop against fluid temperature (${sweep.rpm} rpm)`,
+      xLabel: `fluid temperature (${T})`, yLabel: `pressure drop (${P})`, series, yZero: true,
+    })));
+  } else {
+    grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, sweep && sweep.error
+      ? `Pressure drop against temperature: ${sweep.error}` : "Pressure drop against temperature: computing…")));
+  }
+  const conds = job.conditions || defaults;
+  const rpmMax = Math.max(3000, ...conds.map((c) => c.engine_rpm || 0)) * 1.1;
+  const pump = job.pump || {};
+  if (typeof pump.flow_limit_lpm === "number") {
+    grid.append(el("figure", { class: "plot" }, lineChart({
+      id: "flow-vs-speed", title: "Delivered flow against engine speed",
+      xLabel: "engine speed (rpm)", yLabel: `delivered flow (${Q})`, markers: false,
+      series: [{ name: "delivered flow", points: flowCurve(pump, Math.round(rpmMax)), markers: false }],
+      hlines: [{ y: toShow(pump.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(pump.flow_limit_lpm, "flow_lpm")} ${Q}` }],
+      yZero: true,
+    })));
+  }
+  const th = result.thermal;
+  if (th && Array.isArray(th.full_lock_curve) && th.full_lock_curve.length) {
+    grid.append(el("figure", { class: "plot" }, lineChart({
+      id: "temp-vs-time", title: "Fluid temperature at full lock",
+      xLabel: "time held at full lock (s)", yLabel: `fluid temperature (${T})`,
+      series: [{ name: "fluid temperature", points: th.full_lock_curve.map((p) => [p.t_s, toShow(p.temp_c, "temp_c")]), markers: false }],
+      hlines: [{ y: toShow(th.limit_c, "temp_c"), label: `fluid limit ${fmt(th.limit_c, "temp_c")} ${T}` }],
+    })));
+  } else {
+    grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, "Fluid temperature at full lock: this engine build gives no full-lock curve.")));
+  }
+  box.append(grid);
+}

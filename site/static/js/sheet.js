@@ -1,0 +1,122 @@
+// Build sheet: what the shop cuts and crimps from, per line, plus a parts list.
+// Shown only in print (and by the "Print build sheet" button).
+import { badge, el, worstVerdict } from "./util.js";
+import { dashText, fmt, unitLabel } from "./units.js";
+import { cautionsList } from "./results.js";
+
+const U = (k) => unitLabel(k);
+
+function partSpec(p) {
+  if (p.kind === "hose") {
+    const cls = p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "hose, class not named";
+    const bore = typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} (dash ${dashText(p.bore_mm)})`
+      : p.dash ? `, dash -${p.dash}` : "";
+    return `Hose ${cls}${bore}, length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`;
+  }
+  if (p.kind === "tube") {
+    return `Rigid tube ${p.material || "steel-low-carbon"}, ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")} `
+      + `(OD dash ${dashText(p.od_mm)}), length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`
+      + ((p.bends || []).length ? `, ${(p.bends || []).length} bend(s) at ${(p.bends || []).map((b) => `${b.angle_deg ?? 90}° R${fmt(b.radius_mm, "length_mm", [0, 2])}`).join(", ")}` : "");
+  }
+  if (p.kind === "fitting") {
+    const fam = p.family ? `${p.family}${p.dash ? ` -${p.dash}` : ""}` : "family not named";
+    const end = p.end && p.end !== "inline" ? `, assembly ${p.end}` : "";
+    const orient = typeof p.orientation_deg === "number" && p.orientation_deg !== 0 ? `, clocked ${p.orientation_deg}°` : "";
+    return `Fitting ${p.shape || "straight"}, ${fam}, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}${end}${orient}`
+      + (p.cutoff_mm ? `, cut-off ${fmt(p.cutoff_mm, "length_mm", [0, 2])} ${U("length_mm")}` : "");
+  }
+  if (p.kind === "device") return `${p.is_cooler ? "Cooler" : "Series device"}: drop ${fmt(p.dp_bar, "pressure_bar")} ${U("pressure_bar")} at ${fmt(p.at_flow_lpm, "flow_lpm")} ${U("flow_lpm")}`;
+  if (p.kind === "entrance") return `Reservoir outlet, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}, ${p.edge || "sharp"} edge`;
+  if (p.kind === "exit") return `Discharge into reservoir, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}`;
+  return p.kind;
+}
+
+function portText(port) {
+  if (!port) return "not described";
+  const bits = [port.label || "(port not named)"];
+  if (port.thread) bits.push(`thread ${port.thread}`);
+  if (port.seal) bits.push(`seal ${port.seal}`);
+  if (port.line_end_family) {
+    let size = "";
+    if (port.line_end_dash) size = ` -${port.line_end_dash}`;
+    else if (typeof port.line_end_tube_od_mm === "number") size = ` tube OD ${fmt(port.line_end_tube_od_mm, "length_mm", [0, 3])} ${U("length_mm")}`;
+    else if (port.line_end_thread) size = ` ${port.line_end_thread}`;
+    bits.push(`line end ${port.line_end_family}${size}`);
+  }
+  return bits.join("; ");
+}
+
+function checkMessage(line, name) {
+  const c = (line.checks || []).find((x) => x.check === name);
+  return c ? c : null;
+}
+
+export function renderSheet(job, result) {
+  const sheet = document.getElementById("sheet");
+  sheet.replaceChildren();
+  sheet.append(el("h2", { class: "sheet-title" }, `Build sheet: ${job.name || "(unnamed job)"}`));
+  if (job.notes) sheet.append(el("p", { class: "sheet-notes" }, job.notes));
+  if (!result) {
+    sheet.append(el("p", {}, "No result yet: the build sheet needs a job that computes."));
+    return;
+  }
+  const P = U("pressure_bar");
+  (job.lines || []).forEach((line, li) => {
+    const r = (result.lines || [])[li] || { checks: [] };
+    const sec = el("section", { class: "sheet-line", "data-sheet-line": String(li) });
+    sec.append(el("h3", {}, badge(worstVerdict(r.checks)), ` Line ${li + 1}: `, el("span", {}, line.name || "(unnamed)"), ` (${line.role})`));
+    const dl = el("dl", { class: "kv" });
+    const row = (a, b) => dl.append(el("dt", {}, a), el("dd", {}, b));
+    row("Start", portText(line.from_port));
+    row("End", portText(line.to_port));
+    const cut = checkMessage(r, "cut length");
+    if (cut) row("Cut length", cut.message);
+    else if (typeof line.overall_length_mm === "number") row("Overall length", `${fmt(line.overall_length_mm, "length_mm", [0, 2])} ${U("length_mm")}`);
+    else row("Cut length", "not given (set the overall assembly length and the fittings' cut-off allowances)");
+    const lc = checkMessage(r, "length change");
+    if (lc) row("Slack", lc.message);
+    if (r.rating) {
+      const ra = r.rating;
+      row("Rating", `working ${fmt(ra.working_bar, "pressure_bar", [0, 0])} ${P}, burst ${fmt(ra.burst_bar, "pressure_bar", [0, 0])} ${P}; `
+        + `must hold ${fmt(ra.required_bar, "pressure_bar", [1, 0])} ${P} (${ra.required_basis}); margin ${fmt(ra.margin, null, 2)}, `
+        + `burst margin ${fmt(ra.burst_margin, null, 1)}:1 against ${ra.design_factor}:1; weakest part `
+        + (ra.weakest_part ? `${ra.weakest_part.index} (${ra.weakest_part.description})` : "none rated"));
+    }
+    sec.append(dl);
+    const ol = el("ol", { class: "sheet-parts", start: "0" });
+    (line.parts || []).forEach((p) => ol.append(el("li", {}, partSpec(p))));
+    sec.append(el("h4", {}, "Parts in flow order (hose, tube, fittings and adapters)"), ol);
+    const bad = (r.checks || []).filter((c) => c.verdict !== "ok");
+    if (bad.length) {
+      const ul = el("ul", { class: "check-list" });
+      for (const c of bad) ul.append(el("li", {}, badge(c.verdict), ` ${c.check}: ${c.message}`));
+      sec.append(el("h4", {}, "Open points"), ul);
+    }
+    sec.append(cautionsList("cautions sheet-cautions"));
+    sheet.append(sec);
+  });
+  // parts list for the whole job
+  const tally = new Map();
+  const add = (key, qty, unit) => {
+    const cur = tally.get(key) || { qty: 0, unit };
+    cur.qty += qty;
+    tally.set(key, cur);
+  };
+  for (const line of job.lines || []) {
+    for (const p of line.parts || []) {
+      if (p.kind === "hose") add(`Hose ${p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "(class not named)"}${typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}` : ""}`, p.length_m || 0, "length_m");
+      else if (p.kind === "tube") add(`Tube ${p.material || "steel-low-carbon"} ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")}`, p.length_m || 0, "length_m");
+      else if (p.kind === "fitting") add(`Fitting ${p.shape || "straight"} ${p.family || "(family not named)"}${p.dash ? ` -${p.dash}` : ""}, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}`, 1, "count");
+      else if (p.kind === "device") add(p.is_cooler ? "Cooler" : "Series device", 1, "count");
+    }
+  }
+  const table = el("table", { class: "parts-list" });
+  table.append(el("thead", {}, el("tr", {}, el("th", { scope: "col" }, "Item"), el("th", { scope: "col" }, "Quantity"))));
+  const tb = el("tbody");
+  for (const [key, { qty, unit }] of tally) {
+    tb.append(el("tr", {}, el("td", {}, key), el("td", { class: "num" }, unit === "count" ? `${qty}` : `${fmt(qty, "length_m", [2, 2])} ${U("length_m")}`)));
+  }
+  table.append(tb);
+  sheet.append(el("section", { class: "sheet-partslist" }, el("h3", {}, "Parts list for the whole job"), table));
+  sheet.append(el("p", { class: "sheet-foot" }, "Engineering estimates from Linesmith. Check every rating against the maker's data, local codes and licensed practice before you build."));
+}
