@@ -153,7 +153,7 @@ class Circuit:
                "velocity_max_m_s": max(velocities, default=0.0),
                "reynolds_min": min(res_, default=0.0), "reynolds_max": max(res_, default=0.0),
                "pressure_drop_bar": dp / BAR, "inlet_bar": p_in_pa / BAR, "outlet_bar": (p_in_pa - dp) / BAR,
-               "temp_rise_c": max(dp, 0.0) / rhocp,
+               "temp_rise_c": max(dp - sum(pt["elevation_pa"] for pt in parts), 0.0) / rhocp,
                "transitional": any(pt["regime"] == "transitional" for pt in parts)}
         if detail:
             nodes = [{"after_part": -1, "pressure_bar": p_in_pa / BAR}]
@@ -162,7 +162,10 @@ class Circuit:
             for pt in parts:
                 p -= pt["dp_pa"]
                 nodes.append({"after_part": pt["index"], "pressure_bar": p / BAR})
-                plist.append({"index": pt["index"], "kind": pt["kind"], "velocity_m_s": pt["velocity_m_s"],
+                src = ln["parts"][pt["index"]]
+                plist.append({"index": pt["index"], "job_part": src.get("job_part", pt["index"]),
+                              "adapter": src.get("adapter"), "kind": pt["kind"],
+                              "velocity_m_s": pt["velocity_m_s"],
                               "reynolds": pt["reynolds"], "regime": pt["regime"],
                               "friction_factor": pt["friction_factor"], "k_minor": pt["k_minor"],
                               "pressure_drop_bar": pt["dp_pa"] / BAR,
@@ -235,6 +238,93 @@ def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict
     return out
 
 
+def port_stage(job: dict) -> list[dict]:
+    """Plan the adapters at each line's start and end ports and put them in the line.
+
+    For a port that names the line end to meet it (``calc.model.PORT``), the
+    adapter plan of ``calc.threads.plan_for_port`` is made; its adapters become
+    fitting parts at the start (``from_port``) or end (``to_port``) of the line,
+    so they count in the hydraulics (as restrictions) and in the weakest-part
+    check. Every part of the evaluated line carries ``job_part``: its index in
+    the user's list, or ``None`` for an adapter from a port plan (with
+    ``adapter`` naming it). A plan that does not seal is a failed ``ports``
+    check with the reason, not an input error: the rest of the job still
+    evaluates.
+
+    Returns
+    -------
+    list of dict
+        Per line: ``{"from_port": plan or None, "to_port": plan or None}``.
+    """
+    from . import threads
+    from .model import PART
+    from .schema import validate
+
+    out = []
+    for ln in job["lines"]:
+        parts = [dict(p, job_part=k) for k, p in enumerate(ln["parts"])]
+        plans = {}
+        for end in ("from_port", "to_port"):
+            plan = threads.plan_for_port(ln[end])
+            plans[end] = plan
+            if not plan or not plan["ok"]:
+                continue
+            label = (ln[end].get("label") or ("start port" if end == "from_port" else "end port"))
+            added = []
+            for a, raw in zip(plan["adapters"], threads.adapter_parts(plan)):
+                norm, problems, _ = validate(PART, raw)
+                if problems:  # pragma: no cover - adapter_parts emits valid parts (tested in threads)
+                    continue
+                norm.update(job_part=None, adapter=f"{label}: {a['name']}")
+                added.append(norm)
+            parts = added + parts if end == "from_port" else parts + added
+        ln["parts"] = parts
+        out.append(plans)
+    return out
+
+
+def port_checks(plans: list[dict], job: dict) -> list[list[dict]]:
+    """A ``ports`` check per line end that names a port plan."""
+    out = []
+    for ln, pl in zip(job["lines"], plans):
+        checks = []
+        for end, word in (("from_port", "start"), ("to_port", "end")):
+            plan = pl[end]
+            if plan is None:
+                continue
+            label = ln[end].get("label") or f"{word} port"
+            if not plan["ok"]:
+                checks.append(_check("ports", "fail", f"{label}: {plan['message']}"))
+            elif plan["adapters"]:
+                names = "; ".join(a["name"] for a in plan["adapters"])
+                checks.append(_check("ports", "ok", f"{label}: fit {names}. {plan['message']}".strip()))
+            else:
+                checks.append(_check("ports", "ok", f"{label}: the line end fits the port directly. "
+                                                    f"{plan['message']}".strip()))
+        out.append(checks)
+    return out
+
+
+def steady_part_checks(lines: list[dict], conditions: list[dict], thermal_section: dict) -> None:
+    """Check each part's temperature limit against the steady fluid temperature too.
+
+    The ratings stage judges the operating points' own temperatures; when the
+    thermal stage finds the fluid settles hotter than any of them, each rated
+    part's limit is checked against that steady temperature as well.
+    """
+    t = thermal_section.get("steady_temp_c") if thermal_section else None
+    if t is None or not conditions or t <= max(c["fluid_temp_c"] for c in conditions):
+        return
+    for ln in lines:
+        rating = ln.get("rating") or {}
+        over = [p for p in rating.get("parts", []) if p.get("max_temp_c") is not None and p["max_temp_c"] < t]
+        if over:
+            names = ", ".join(f"part {p['index']} ({p['description']}, {p['max_temp_c']:g} C)" for p in over)
+            ln["checks"].append(_check("temperature (steady)", "fail",
+                                       f"add or enlarge a cooler, or use parts rated hotter: the fluid settles "
+                                       f"at {t:.0f} C for this duty cycle, above the limit of {names}"))
+
+
 def validity_warnings(circuit: Circuit, conditions: list[dict]) -> list[Problem]:
     """Inputs outside the validity range of a method: warnings, not errors."""
     out = []
@@ -298,20 +388,27 @@ def evaluate(job) -> dict:
         return {"ok": False, "errors": [p.as_dict() for p in problems],
                 "warnings": [w.as_dict() for w in warnings]}
     # -- stage: part data (calc.ratings.prepare fills hose bores and ratings from the tables) --
-    from . import ratings
+    from . import ratings, thermal
     if problems := ratings.prepare(norm):
         return {"ok": False, "errors": [p.as_dict() for p in problems], "warnings": [w.as_dict() for w in warnings]}
+    # -- stage: ports (adapters planned from each line's end ports join the line) --
+    plans = port_stage(norm)
     circuit = Circuit(norm)
     conditions = [circuit.operating_point(c) for c in norm["conditions"]]
     checks = hydraulic_checks(circuit, conditions)
     warnings.extend(validity_warnings(circuit, conditions))
-    lines = [{"index": ln["index"], "name": ln["name"], "role": ln["role"], "checks": checks[ln["index"]]}
+    pchecks = port_checks(plans, norm)
+    lines = [{"index": ln["index"], "name": ln["name"], "role": ln["role"],
+              "checks": pchecks[ln["index"]] + checks[ln["index"]],
+              "ports": {"from_port": plans[ln["index"]]["from_port"], "to_port": plans[ln["index"]]["to_port"]},
+              "parts": [{"index": k, "job_part": p.get("job_part"), "adapter": p.get("adapter"), "kind": p["kind"]}
+                        for k, p in enumerate(ln["parts"])]}
              for ln in circuit.lines]
     # -- stage: ratings (calc.ratings.assess adds lines[j].rating, checks and candidates) --
     warnings.extend(ratings.assess(circuit, conditions, lines, norm))
     # -- stage: thermal (calc.thermal.assess adds conditions[i].heat_w and result["thermal"]) --
-    from . import thermal
-    thermal_section = thermal.assess(circuit, conditions)  # goes into result["thermal"]
+    thermal_section = thermal.assess(circuit, conditions)
+    steady_part_checks(lines, conditions, thermal_section)
     for c in conditions:
         if c["relief_open"] and not c["full_lock"]:
             warnings.append(Problem("conditions", f"at '{c['name']}' the circuit drop at neutral reaches the "
@@ -325,11 +422,13 @@ def evaluate(job) -> dict:
                                      "specific_heat_j_kgk", "max_temp_c", "source")},
         "conditions": conditions,
         "lines": lines,
+        "thermal": thermal_section,
         "warnings": [w.as_dict() for w in warnings],
         "methods": [
             "Friction: 64/Re below Re 2000; Colebrook (Clamond's solution) above 4000; linear in Re between.",
             "Fittings: Darby 3-K; bends: Rennels less arc friction; bore changes: Hooper sharp contraction "
-            "and expansion; reservoir entrance: Hooper 2-K.",
+            "and expansion; reservoir entrance: 160/Re plus the turbulent entrance coefficient; exit: K = 2 "
+            "laminar, 1 turbulent.",
             "Gear valve drop scaled as flow squared from its stated neutral drop.",
         ],
     }

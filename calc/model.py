@@ -47,7 +47,7 @@ def _bends() -> ListOf:
     return ListOf("bends", "Bends", Record("bend", "Bend", (
         Field("angle_deg", "Bend angle", unit="angle_deg", default=90.0, gt=0, le=360,
               help="Angle turned by the flow, in degrees."),
-        Field("radius_mm", "Centre-line radius", unit="length_mm", default=REQUIRED, gt=0, le=5000,
+        Field("radius_mm", "Centre-line radius", unit="length_mm", default=REQUIRED, ge=0.5, le=5000,
               help="Radius of the bend's centre line."),
     )), default=[], max_items=50, help="Bends along this part; each adds a bend loss and is checked "
                                         "against the part's minimum bend radius.")
@@ -61,9 +61,9 @@ HOSE = Record("hose", "Hose", (
           help="A hose class from the part tables (for example 'SAE 100R2AT'); fills bore and ratings."),
     Field("dash", "Dash size", "integer", default=None, gt=0, le=64,
           help="Dash size: inside diameter in sixteenths of an inch (-6 = 3/8 in)."),
-    Field("bore_mm", "Bore", unit="length_mm", default=None, gt=0, le=100, warn_below=3, warn_above=40,
+    Field("bore_mm", "Bore", unit="length_mm", default=None, ge=0.5, le=100, warn_below=3, warn_above=40,
           help="Inside diameter. Filled from the class and dash size when left empty."),
-    Field("length_m", "Length", unit="length_m", default=REQUIRED, gt=0, le=50, warn_above=10,
+    Field("length_m", "Length", unit="length_m", default=REQUIRED, ge=0.001, le=50, warn_above=10,
           help="Flow length of the hose between fitting stems."),
     Field("roughness_mm", "Wall roughness", unit="length_mm", default=0.005, ge=0, le=1,
           help="Absolute roughness of the bore; 0.005 mm is typical of rubber hose (from memory)."),
@@ -81,11 +81,11 @@ HOSE = Record("hose", "Hose", (
 ))
 
 TUBE = Record("tube", "Rigid tube", (
-    Field("od_mm", "Outside diameter", unit="length_mm", default=REQUIRED, gt=0, le=100, warn_below=3,
+    Field("od_mm", "Outside diameter", unit="length_mm", default=REQUIRED, ge=1, le=100, warn_below=3,
           help="Outside diameter of the tube (tube dash size = OD in sixteenths of an inch)."),
-    Field("wall_mm", "Wall thickness", unit="length_mm", default=REQUIRED, gt=0, le=20,
+    Field("wall_mm", "Wall thickness", unit="length_mm", default=REQUIRED, ge=0.05, le=20,
           help="Wall thickness; must be less than half the outside diameter."),
-    Field("length_m", "Length", unit="length_m", default=REQUIRED, gt=0, le=50, warn_above=10,
+    Field("length_m", "Length", unit="length_m", default=REQUIRED, ge=0.001, le=50, warn_above=10,
           help="Developed (straightened) length of the tube."),
     Field("roughness_mm", "Wall roughness", unit="length_mm", default=0.0015, ge=0, le=1,
           help="Absolute roughness; 0.0015 mm is the usual value for drawn tubing (from memory)."),
@@ -99,7 +99,7 @@ TUBE = Record("tube", "Rigid tube", (
 ))
 
 FITTING = Record("fitting", "Fitting or adapter", (
-    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, gt=0, le=100, warn_below=2,
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100, warn_below=2,
           help="Smallest inside diameter of the fitting (the stem or the drilled passage)."),
     Field("shape", "Shape", "choice", default="straight", choices=FITTING_SHAPES,
           help="Flow path through the fitting, for its loss coefficient."),
@@ -124,9 +124,9 @@ FITTING = Record("fitting", "Fitting or adapter", (
 DEVICE = Record("device", "Cooler or series device", (
     Field("dp_bar", "Measured pressure drop", unit="pressure_bar", default=REQUIRED, ge=0, le=200,
           help="Pressure drop measured across the device at the stated flow and viscosity."),
-    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, gt=0, le=500,
+    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
           help="Flow at which the drop was measured."),
-    Field("at_visc_cst", "At viscosity", unit="viscosity_cst", default=None, gt=0, le=100000,
+    Field("at_visc_cst", "At viscosity", unit="viscosity_cst", default=None, ge=0.5, le=100000,
           help="Viscosity at which the drop was measured; needed for the viscous scaling."),
     Field("scaling", "Scaling with flow", "choice", default="inertial", choices=("viscous", "inertial"),
           help="'viscous': drop proportional to viscosity x flow (laminar passages); 'inertial': drop "
@@ -138,13 +138,13 @@ DEVICE = Record("device", "Cooler or series device", (
 ))
 
 ENTRANCE = Record("entrance", "Reservoir outlet (flow enters the line)", (
-    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, gt=0, le=100),
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100),
     Field("edge", "Edge", "choice", default="sharp", choices=("sharp", "rounded", "projecting"),
           help="Shape of the opening where fluid leaves the reservoir."),
 ))
 
 EXIT = Record("exit", "Discharge into reservoir", (
-    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, gt=0, le=100),
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100),
 ))
 
 PART = Variants("part", "Part", "kind", {
@@ -194,7 +194,7 @@ LINE = Record("line", "Line", (
 
 CONDITION = Record("condition", "Operating point", (
     _name,
-    Field("engine_rpm", "Engine speed", unit="speed_rpm", default=REQUIRED, gt=0, le=12000,
+    Field("engine_rpm", "Engine speed", unit="speed_rpm", default=REQUIRED, ge=1, le=12000,
           help="Crankshaft speed."),
     Field("fluid_temp_c", "Fluid temperature", unit="temp_c", default=REQUIRED, ge=-50, le=200,
           help="Bulk fluid temperature at this point."),
@@ -236,15 +236,15 @@ FLUID = Record("fluid", "Fluid", (
 ))
 
 PUMP = Record("pump", "Pump and drive", (
-    Field("displacement_cc_rev", "Displacement", unit="displacement_cc", default=REQUIRED, gt=0, le=200,
+    Field("displacement_cc_rev", "Displacement", unit="displacement_cc", default=REQUIRED, ge=0.5, le=200,
           warn_below=4, warn_above=40, help="Geometric displacement per pump revolution."),
-    Field("pulley_ratio", "Pulley ratio (pump : crank speed)", unit="ratio", default=1.0, gt=0, le=5,
+    Field("pulley_ratio", "Pulley ratio (pump : crank speed)", unit="ratio", default=1.0, ge=0.05, le=5,
           help="Pump speed divided by crankshaft speed."),
-    Field("volumetric_efficiency", "Volumetric efficiency", unit="ratio", default=0.9, gt=0, le=1,
+    Field("volumetric_efficiency", "Volumetric efficiency", unit="ratio", default=0.9, ge=0.05, le=1,
           help="Delivered over geometric flow; 0.85-0.95 is typical of vane pumps (from memory)."),
-    Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=REQUIRED, gt=0, le=500,
+    Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
           help="Most flow the flow-control valve lets out; the rest recirculates in the pump."),
-    Field("relief_bar", "Relief setting", unit="pressure_bar", default=REQUIRED, gt=0, le=500,
+    Field("relief_bar", "Relief setting", unit="pressure_bar", default=REQUIRED, ge=1, le=500,
           warn_above=200, help="Pressure at which the relief valve opens."),
     Field("overall_efficiency", "Overall efficiency", unit="ratio", default=None, gt=0, le=1,
           help="If given, the pump's own losses are added to the heat load."),
@@ -253,7 +253,7 @@ PUMP = Record("pump", "Pump and drive", (
 GEAR = Record("gear", "Steering gear", (
     Field("neutral_drop_bar", "Valve drop at neutral", unit="pressure_bar", default=REQUIRED, ge=0, le=100,
           help="Pressure drop across the open-centre valve with no steering input, at the stated flow."),
-    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, gt=0, le=500,
+    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.5, le=500,
           help="Flow at which the neutral drop was measured; other flows scale as flow squared "
                "(orifice flow, stated assumption)."),
 ))

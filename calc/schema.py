@@ -107,6 +107,9 @@ class Field:
             if isinstance(value, bool) or not isinstance(value, (int, float)):
                 problems.append(Problem(path, f"must be a number, got {_kind_of(value)}"))
                 return None
+            if isinstance(value, int) and abs(value) > 10 ** 12:
+                problems.append(Problem(path, "is far too large to be a real value"))
+                return None
             if not math.isfinite(value):
                 problems.append(Problem(path, "must be a finite number (NaN and infinity are not allowed)"))
                 return None
@@ -115,6 +118,9 @@ class Field:
                 return None
             if abs(value) > 1e12:
                 problems.append(Problem(path, "is far too large to be a real value"))
+                return None
+            if value != 0 and abs(value) < 1e-9:
+                problems.append(Problem(path, "is far too small to be a real value"))
                 return None
             value = int(value) if k == "integer" else float(value)
             if self.gt is not None and not value > self.gt:

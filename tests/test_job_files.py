@@ -72,8 +72,6 @@ def test_huge_and_non_finite_numbers_name_their_field():
     assert errors[0]["path"] == ""
 
 
-@pytest.mark.xfail(strict=True, reason="calc.schema converts a 400-digit integer with float() and the "
-                   "OverflowError comes back as an internal error; reported to the engine's owner")
 def test_integer_beyond_float_range_names_its_field():
     text = _demo_text()
     relief = json.dumps(demo_job()["pump"]["relief_bar"])

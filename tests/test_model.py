@@ -26,8 +26,8 @@ def test_every_demo_job_is_valid_and_evaluates():
 
 
 @pytest.mark.parametrize("mutate, path, fragment", [
-    (lambda j: j["lines"][0]["parts"][0].update(bore_mm=0), "lines[0].parts[0].bore_mm", "greater than 0"),
-    (lambda j: j["lines"][0]["parts"][0].update(bore_mm=-3), "lines[0].parts[0].bore_mm", "greater than 0"),
+    (lambda j: j["lines"][0]["parts"][0].update(bore_mm=0), "lines[0].parts[0].bore_mm", "at least 0.5"),
+    (lambda j: j["lines"][0]["parts"][0].update(bore_mm=-3), "lines[0].parts[0].bore_mm", "at least 0.5"),
     (lambda j: j["lines"][0]["parts"][0].update(bore_mm="wide"), "lines[0].parts[0].bore_mm", "number"),
     (lambda j: j["lines"][0]["parts"][0].update(bore_mm=math.nan), "lines[0].parts[0].bore_mm", "finite"),
     (lambda j: j["lines"][0]["parts"][0].update(length_m=math.inf), "lines[0].parts[0].length_m", "finite"),
@@ -116,7 +116,7 @@ def test_describe_job_carries_labels_units_defaults_and_help():
     fields = {f["key"]: f for f in d["job"]["fields"]}
     pump = {f["key"]: f for f in fields["pump"]["fields"]}
     assert pump["relief_bar"]["unit"] == "pressure_bar" and pump["relief_bar"]["label"]
-    assert pump["relief_bar"]["required"] is True and pump["relief_bar"]["gt"] == 0
+    assert pump["relief_bar"]["required"] is True and pump["relief_bar"]["ge"] == 1
     parts = fields["lines"]["item"]["fields"]
     part = next(f for f in parts if f["key"] == "parts")
     assert set(part["item"]["variants"]) >= {"hose", "tube", "fitting", "device", "entrance", "exit"}
@@ -141,7 +141,7 @@ def test_cli_invalid_job_exits_2_with_one_line_per_problem(tmp_path):
     r = subprocess.run([sys.executable, "-m", "calc", "evaluate", str(f)], capture_output=True, text=True)
     assert r.returncode == 2
     lines = r.stderr.strip().splitlines()
-    assert "lines[0].parts[0].bore_mm: must be greater than 0" in lines
+    assert "lines[0].parts[0].bore_mm: must be at least 0.5" in lines
     assert any(ln.startswith("pump.relief_bar:") for ln in lines)
     assert "Traceback" not in r.stderr
 
