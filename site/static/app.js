@@ -308,6 +308,9 @@ function startEngine() {
   worker.postMessage(JSON.stringify({ type: "init", ...config }));
 }
 
+// For tests and for a look in the console: the job as JSON text, exactly as kept.
+window.linesmith = Object.freeze({ jobJSON: () => JSON.stringify(state.job) });
+
 try {
   startEngine();
 } catch (error) {

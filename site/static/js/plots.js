@@ -38,7 +38,7 @@ function marker(shape, x, y) {
  */
 export function lineChart(opts) {
   const W = opts.width || 460, H = opts.height || 260;
-  const m = { l: 58, r: 14, t: 30, b: 44 + 16 * Math.ceil((opts.series.length + (opts.hlines || []).length) / 2) };
+  const m = { l: 58, r: 26, t: 30, b: 44 + 16 * Math.ceil((opts.series.length + (opts.hlines || []).length) / 2) };
   const pts = opts.series.flatMap((se) => se.points);
   const xs = pts.map((p) => p[0]);
   const ys = pts.map((p) => p[1]).concat((opts.hlines || []).map((h) => h.y));
@@ -99,6 +99,7 @@ export function lineChart(opts) {
 
 function fmtTick(v, ticks) {
   const step = Math.abs(ticks[1] - ticks[0]) || 1;
-  const dec = Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
-  return v.toFixed(Math.min(dec + (step / 10 ** Math.floor(Math.log10(step)) === 2.5 ? 1 : 0), 4));
+  let dec = 0;
+  while (dec < 4 && Math.abs(Math.round(step * 10 ** dec) - step * 10 ** dec) > 1e-6) dec += 1;
+  return v.toFixed(dec);
 }

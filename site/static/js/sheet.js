@@ -77,10 +77,14 @@ export function renderSheet(job, result) {
     if (lc) row("Slack", lc.message);
     if (r.rating) {
       const ra = r.rating;
-      row("Rating", `working ${fmt(ra.working_bar, "pressure_bar", [0, 0])} ${P}, burst ${fmt(ra.burst_bar, "pressure_bar", [0, 0])} ${P}; `
-        + `must hold ${fmt(ra.required_bar, "pressure_bar", [1, 0])} ${P} (${ra.required_basis}); margin ${fmt(ra.margin, null, 2)}, `
-        + `burst margin ${fmt(ra.burst_margin, null, 1)}:1 against ${ra.design_factor}:1; weakest part `
-        + (ra.weakest_part ? `${ra.weakest_part.index} (${ra.weakest_part.description})` : "none rated"));
+      const v = (value, kind, field, dec, suffix = "") => (value == null ? el("span", { "data-field": field }, "unknown")
+        : el("span", {}, el("span", { "data-field": field, class: "num" }, fmt(value, kind, dec)), suffix));
+      row("Rating", el("span", {}, "working ", v(ra.working_bar, "pressure_bar", "working_bar", [0, 0], ` ${P}`),
+        ", burst ", v(ra.burst_bar, "pressure_bar", "burst_bar", [0, 0], ` ${P}`),
+        "; must hold ", v(ra.required_bar, "pressure_bar", "required_bar", [1, 0], ` ${P}`), ` (${ra.required_basis})`));
+      row("Margins", el("span", {}, "working / must hold ", v(ra.margin, null, "margin", 2),
+        "; burst ", v(ra.burst_margin, null, "burst_margin", 1, ":1"), ` against ${ra.design_factor}:1`));
+      row("Weakest part", ra.weakest_part ? `part ${ra.weakest_part.index} (${ra.weakest_part.description})` : "none rated");
     }
     sec.append(dl);
     const ol = el("ol", { class: "sheet-parts", start: "0" });
