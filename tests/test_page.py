@@ -381,3 +381,22 @@ def test_print_layout_shows_the_build_sheet(page, site):
         assert sheet.locator(".sheet-partslist tbody tr").count() >= 3
     finally:
         page.emulate_media(media="screen")
+
+
+def test_thread_panel_ranks_like_the_engine(page):
+    from calc.threads import identify
+
+    _reset(page)
+    page.fill("#thr-major", "15.8")
+    page.fill("#thr-pitch", "18")
+    page.select_option("#thr-pitch-unit", "tpi")
+    page.select_option("#thr-male", "true")
+    page.select_option("#thr-taper", "false")
+    page.click("#thr-go")
+    page.wait_for_selector("#thr-out table")
+    expected = identify(major_mm=15.8, pitch_mm=25.4 / 18, male=True, tapered=False)["candidates"]
+    rows = page.locator("#thr-out tbody tr")
+    assert rows.count() == len(expected) > 0
+    # Source: ASME B1.1 (from memory) gives 5/8-18 UNF a 15.875 mm major diameter; the engine ranks it first.
+    assert rows.first.locator("td").first.text_content() == expected[0]["thread"] == "5/8-18 UNF"
+    _close(rows.first.locator("td").nth(2).text_content(), expected[0]["fit_error_mm"], "fit error")

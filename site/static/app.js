@@ -3,7 +3,7 @@
 // Text from a job (names typed by a user) is always inserted with textContent.
 import { clone, el, readJSON } from "./js/util.js";
 import { getSystem, setSystem, unitLabel } from "./js/units.js";
-import { assignStaticPaths, fillAll, initForm, localErrors, refreshUnitLabels, showErrors } from "./js/form.js";
+import { assignStaticPaths, fillAll, initForm, localErrors, resetPending, showErrors } from "./js/form.js";
 import { renderPlots, renderProblems, renderResult, setCautions, sweepJob } from "./js/results.js";
 import { renderSheet } from "./js/sheet.js";
 import { autosave, readJobFile, restore, saveFile, UNITS_KEY } from "./js/storage.js";
@@ -155,8 +155,8 @@ function show() {
     const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
     renderPlots(state.result, state.resultJob, sweep, model.default_conditions);
     renderSheet(state.resultJob, state.result);
-    resultsSection.hidden = false;
   }
+  if (state.result || state.errors.length) resultsSection.hidden = false;
 }
 
 function changed({ structural, recalc: needsCalc }) {
@@ -175,6 +175,7 @@ function loadJob(job) {
   state.job = job;
   state.rev += 1;
   state.sweep = null;
+  resetPending();
   fillAll();
   autosave(state.job);
   schedule(0);

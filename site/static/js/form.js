@@ -251,6 +251,11 @@ export function localErrors() {
   return [...pendingText.keys()].map((path) => ({ path, message: "the text typed here is not a valid value; the last valid value is kept" }));
 }
 
+export function resetPending() {
+  pendingText.clear();
+  for (const p of formEl().querySelectorAll(".fld-error[data-local]")) { p.hidden = true; p.textContent = ""; delete p.dataset.local; }
+}
+
 function clearPending(prefix) {
   for (const key of [...pendingText.keys()]) if (key.startsWith(prefix)) pendingText.delete(key);
 }

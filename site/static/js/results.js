@@ -119,7 +119,10 @@ function candidatesBlock(cands) {
     `Drop (${U("pressure_bar")})`, `Working (${U("pressure_bar")})`, "Why not"]) head.append(el("th", { scope: "col" }, t));
   table.append(el("thead", {}, head));
   const tb = el("tbody");
+  const SHOW_REJECTED = 6;
+  let rejected = 0;
   cands.forEach((c, i) => {
+    if (c.verdict === "fail" && ++rejected > SHOW_REJECTED) return;
     tb.append(el("tr", { "data-candidate": String(i) },
       el("td", { class: "num" }, String(i + 1)), el("td", {}, c.class), el("td", {}, `-${c.dash}`),
       numCell("td", c.bore_mm, "length_mm", "bore_mm", [2, 3]), el("td", {}, badge(c.verdict)),
@@ -130,6 +133,7 @@ function candidatesBlock(cands) {
   });
   table.append(tb);
   det.append(el("div", { class: "table-wrap" }, table));
+  if (rejected > SHOW_REJECTED) det.append(el("p", { class: "small" }, `${rejected - SHOW_REJECTED} more rejected candidates not listed.`));
   return det;
 }
 
@@ -224,7 +228,35 @@ function warningsBlock(result) {
   box.append(ul);
 }
 
+function summaryBlock(result) {
+  const box = document.getElementById("summary");
+  box.replaceChildren();
+  const table = el("table", { class: "summary-table" });
+  table.append(el("caption", { class: "visually-hidden" }, "Verdict per line"));
+  table.append(el("thead", {}, el("tr", {}, ...["Line", "Verdict", "Not passing", `Largest drop (${U("pressure_bar")})`,
+    "Working margin"].map((t) => el("th", { scope: "col" }, t)))));
+  const tb = el("tbody");
+  (result.lines || []).forEach((line, li) => {
+    const drops = (result.conditions || []).map((c) => (c.lines[li] || {}).pressure_drop_bar).filter((v) => typeof v === "number");
+    const bad = (line.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
+    tb.append(el("tr", { "data-summary-line": String(li) },
+      el("th", { scope: "row" }, `${line.name || `line ${li + 1}`} (${line.role})`),
+      el("td", {}, badge(worstVerdict(line.checks))),
+      el("td", {}, bad.length ? bad.join(", ") : "none"),
+      numCell("td", drops.length ? Math.max(...drops) : null, "pressure_bar", "max_drop_bar", [2, 1]),
+      numCell("td", line.rating ? line.rating.margin : null, null, "margin", 2)));
+  });
+  if (result.thermal) {
+    const bad = (result.thermal.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
+    tb.append(el("tr", { "data-summary-line": "thermal" }, el("th", { scope: "row" }, "fluid temperature"),
+      el("td", {}, badge(result.thermal.verdict)), el("td", {}, bad.length ? bad.join(", ") : "none"), el("td"), el("td")));
+  }
+  table.append(tb);
+  box.append(table);
+}
+
 export function renderResult(result, job) {
+  summaryBlock(result);
   lineCards(result, job);
   thermalBlock(result);
   conditionBlocks(result);
