@@ -27,6 +27,7 @@ The circuit model (stated assumptions):
 """
 from __future__ import annotations
 
+import json
 import math
 
 from . import fluid as fluidmod
@@ -76,12 +77,18 @@ class Circuit:
         q0 = self.gear["at_flow_lpm"] * LPM
         return self.gear["neutral_drop_bar"] * BAR * (q_m3_s / q0) ** 2
 
-    def circuit_drop_pa(self, q_m3_s: float, st: fluidmod.FluidState) -> float:
-        """Pump outlet gauge pressure needed to push ``q_m3_s`` round at neutral, Pa."""
+    def circuit_drop_pa(self, q_m3_s: float, st: fluidmod.FluidState, per_line: dict | None = None) -> float:
+        """Pump outlet gauge pressure needed to push ``q_m3_s`` round at neutral, Pa.
+
+        ``per_line``, if given, receives each pressure and return line's drop by line index.
+        """
         total = self.gear_drop_pa(q_m3_s)
         for role in ("pressure", "return"):
             for ln in self.by_role[role]:
-                total += hyd.line_flow(ln["segs"], q_m3_s, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+                dp = hyd.line_flow(ln["segs"], q_m3_s, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+                total += dp
+                if per_line is not None:
+                    per_line[ln["index"]] = dp
         return total
 
     # -- an operating point ----------------------------------------------------
@@ -103,15 +110,18 @@ class Circuit:
         relief_pa = self.pump["relief_bar"] * BAR
         q_pump, q_uncapped, capped = self.pump_flow(cond["engine_rpm"])
         relief_open = False
+        dps: dict = {}
         if cond["full_lock"]:
             q_lines, q_relief, p_out = 0.0, q_pump, relief_pa
             relief_open = True
+            self.circuit_drop_pa(0.0, st, dps)
         else:
-            p_out = self.circuit_drop_pa(q_pump, st)
+            p_out = self.circuit_drop_pa(q_pump, st, dps)
             q_lines, q_relief = q_pump, 0.0
             if p_out > relief_pa:
                 q_lines = _solve_flow(lambda q: self.circuit_drop_pa(q, st) - relief_pa, q_pump)
                 q_relief, p_out, relief_open = q_pump - q_lines, relief_pa, True
+                self.circuit_drop_pa(q_lines, st, dps)
         res = {"name": cond["name"], "engine_rpm": cond["engine_rpm"], "fluid_temp_c": t,
                "full_lock": cond["full_lock"], "viscosity_cst": st.nu_m2_s * 1e6,
                "density_kg_m3": st.rho_kg_m3, "pump_flow_lpm": q_pump / LPM,
@@ -123,13 +133,13 @@ class Circuit:
         # pressure side: node pressures from the pump outlet forward
         p = p_out
         for ln in self.by_role["pressure"]:
-            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p, detail, static=cond["full_lock"])
+            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p, detail, dps[ln["index"]])
             p = r["outlet_bar"] * BAR
         # return side: node pressures from the reservoir (0 bar) backward
         p = 0.0
         for ln in reversed(self.by_role["return"]):
-            dp = hyd.line_flow(ln["segs"], q_lines, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
-            lines_out[ln["index"]] = r = self._line(ln, q_lines, st, p + dp, detail)
+            dp = dps[ln["index"]]
+            lines_out[ln["index"]] = self._line(ln, q_lines, st, p + dp, detail, dp)
             p += dp
         res["gear_outlet_bar"] = p / BAR
         # feed side: from the reservoir (0 bar) forward to the pump inlet
@@ -142,10 +152,13 @@ class Circuit:
         res["lines"] = lines_out
         return res
 
-    def _line(self, ln: dict, q: float, st, p_in_pa: float, detail: bool, static: bool = False) -> dict:
+    def _line(self, ln: dict, q: float, st, p_in_pa: float, detail: bool, dp: float | None = None) -> dict:
+        if not detail:  # the thermal iteration needs only the drops
+            if dp is None:
+                dp = hyd.line_flow(ln["segs"], q, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+            return {"index": ln["index"], "name": ln["name"], "role": ln["role"], "flow_lpm": q / LPM,
+                    "pressure_drop_bar": dp / BAR, "inlet_bar": p_in_pa / BAR, "outlet_bar": (p_in_pa - dp) / BAR}
         dp, parts = hyd.line_flow(ln["segs"], q, st.nu_m2_s, st.rho_kg_m3, detail=True)
-        if static:  # full lock: no flow, the line stands at the inlet pressure less elevation
-            pass
         velocities = [pt["velocity_m_s"] for pt in parts if pt["kind"] != "device"]
         res_ = [pt["reynolds"] for pt in parts if pt["kind"] != "device" and pt["reynolds"] > 0]
         rhocp = st.rho_kg_m3 * st.cp_j_kgk
@@ -432,4 +445,8 @@ def evaluate(job) -> dict:
             "Gear valve drop scaled as flow squared from its stated neutral drop.",
         ],
     }
-    return _finite(result)
+    try:  # the C encoder checks every float at once; the walk runs only if one is not finite
+        json.dumps(result, allow_nan=False)
+        return result
+    except ValueError:
+        return _finite(result)

@@ -134,7 +134,8 @@ class Segment:
     """A part compiled to SI for repeated evaluation."""
 
     __slots__ = ("index", "kind", "d_m", "length_m", "eps_m", "bends", "rise_m", "shape",
-                 "dp0_pa", "q0_m3_s", "nu0_m2_s", "scaling", "edge", "name")
+                 "dp0_pa", "q0_m3_s", "nu0_m2_s", "scaling", "edge", "name",
+                 "area_m2", "eps_d", "l_over_d", "bend_a", "bend_b", "k1", "k_inf")
 
     def __init__(self, index, kind, d_m=None, length_m=0.0, eps_m=0.0, bends=(), rise_m=0.0,
                  shape=None, dp0_pa=0.0, q0_m3_s=1.0, nu0_m2_s=None, scaling="inertial", edge="sharp",
@@ -143,6 +144,31 @@ class Segment:
         self.bends, self.rise_m, self.shape = tuple(bends), rise_m, shape
         self.dp0_pa, self.q0_m3_s, self.nu0_m2_s, self.scaling = dp0_pa, q0_m3_s, nu0_m2_s, scaling
         self.edge, self.name = edge, name
+        # Coefficients fixed by the geometry, taken from fluids once here so that each
+        # evaluation is K = k1/Re + k_inf + (bend_a + bend_b f): Rennels' bend coefficient is
+        # affine in f and Darby's 3-K is affine in 1/Re (both checked against fluids in the tests).
+        self.area_m2 = 0.25 * math.pi * d_m * d_m if d_m else 0.0
+        self.eps_d = eps_m / d_m if d_m else 0.0
+        self.l_over_d = length_m / d_m if d_m else 0.0
+        self.bend_a = self.bend_b = self.k1 = self.k_inf = 0.0
+        if kind in ("hose", "tube"):
+            for angle, rc in self.bends:
+                k0 = bend_rounded(Di=d_m, angle=angle, fd=0.0, rc=rc, method="Rennels")
+                k_1 = bend_rounded(Di=d_m, angle=angle, fd=1.0, rc=rc, method="Rennels")
+                self.bend_a += k0
+                self.bend_b += k_1 - k0 - math.radians(angle) * rc / d_m  # less the arc's own friction
+        elif kind == "fitting" and shape in _DARBY:
+            name_, n = _DARBY[shape]
+            # Darby's size term uses the nominal size in inches; fluids maps a bore to NPS by
+            # the Schedule 40 table, which goes negative below 1/8 NPS, so the bore in inches
+            # is passed as the nominal size (small drilled fittings).
+            nps = d_m / 0.0254
+            c = Darby3K(Re=1e300, name=name_, NPS=nps)
+            self.k_inf = n * c
+            self.k1 = n * (Darby3K(Re=1.0, name=name_, NPS=nps) - c)
+        elif kind == "entrance":
+            self.k1 = 160.0
+            self.k_inf = _entrance_k(edge, d_m)
 
 
 def part_bore_mm(part: dict) -> float | None:
@@ -257,25 +283,17 @@ def line_flow(segs: list[Segment], q_m3_s: float, nu_m2_s: float, rho_kg_m3: flo
             prev_d = None
         else:
             if q_m3_s > 0.0:
-                v, re = _velocity_re(q_m3_s, d, nu_m2_s)
+                v = q_m3_s / s.area_m2
+                re = v * d / nu_m2_s
                 dyn = 0.5 * rho_kg_m3 * v * v
-                fd = friction_factor(re, s.eps_m / d)
-                if s.kind in ("hose", "tube", "fitting") and s.length_m > 0.0:
-                    fric = fd * s.length_m / d * dyn
-                if s.kind in ("hose", "tube"):
-                    for angle, rc in s.bends:
-                        k = bend_rounded(Di=d, angle=angle, fd=fd, rc=rc, Re=re, roughness=s.eps_m,
-                                         method="Rennels") - fd * math.radians(angle) * rc / d
-                        k_minor += max(k, 0.0)
-                elif s.kind == "fitting" and s.shape in _DARBY:
-                    name, n = _DARBY[s.shape]
-                    # Darby's size term uses the nominal size in inches; fluids maps a bore to
-                    # NPS by the Schedule 40 table, which goes negative below 1/8 NPS, so the
-                    # bore in inches is passed as the nominal size (small drilled fittings).
-                    k_minor += n * Darby3K(Re=re, name=name, NPS=d / 0.0254)
-                elif s.kind == "entrance":
-                    k_minor += 160.0 / re + _entrance_k(s.edge, d)
-                elif s.kind == "exit":
+                fd = friction_factor(re, s.eps_d)
+                kind = s.kind
+                if kind != "entrance" and kind != "exit" and s.length_m > 0.0:
+                    fric = fd * s.l_over_d * dyn
+                k_minor = s.k1 / re + s.k_inf
+                if s.bends:
+                    k_minor += max(s.bend_a + s.bend_b * fd, 0.0)
+                elif kind == "exit":
                     k_turb = exit_normal()
                     if re <= RE_LAMINAR:
                         k_minor += 2.0

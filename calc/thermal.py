@@ -797,9 +797,13 @@ class ThermalModel:
         lines_w = 0.0
         parts = [] if detail else None
         if cap > 0.0 and dt != 0.0:
+            same = {}  # parts of one geometry share their UA per metre (exact: same inputs)
             for s in self.surfaces:
-                h_i = h_inside_pipe(s["d_i"], q_m3_s, st.nu_m2_s, st.k_w_mk, pr, s["eD"])
-                ua_m, ts = cylinder_ua_per_m(s["d_i"], s["d_o"], s["k"], t_c, ta, air_speed_m_s, h_i)
+                key = (s["d_i"], s["d_o"], s["k"], s["eD"])
+                if key not in same:
+                    h_i = h_inside_pipe(s["d_i"], q_m3_s, st.nu_m2_s, st.k_w_mk, pr, s["eD"])
+                    same[key] = cylinder_ua_per_m(s["d_i"], s["d_o"], s["k"], t_c, ta, air_speed_m_s, h_i)
+                ua_m, ts = same[key]
                 ua = ua_m * s["length"]
                 w = cap * (1.0 - math.exp(-ua / cap)) * dt
                 lines_w += w
