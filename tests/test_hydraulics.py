@@ -214,3 +214,24 @@ def test_transition_band_is_flagged_in_the_result():
     regimes = {p["regime"] for ln in res["conditions"][0]["lines"] for p in ln["parts"]}
     assert "transitional" in regimes
     assert any(c["check"] == "regime" for ln in res["lines"] for c in ln["checks"])
+
+
+@pytest.mark.parametrize("re", [30.0, 800.0, 3000.0, 2e4, 2e5])
+def test_bend_and_fitting_coefficients_match_fluids_calls(re):
+    # Source: fluids.fittings.bend_rounded (Rennels) and fluids.fittings.Darby3K, reference library:
+    # the per-part coefficients compiled once must give the same K as calling fluids each time.
+    d = 0.0095
+    nu, rho = 10e-6, 850.0
+    q = re * nu * math.pi * d / 4
+    bends = [{"angle_deg": 90.0, "radius_mm": 40.0}, {"angle_deg": 135.0, "radius_mm": 25.0}]
+    _, parts = hyd.line_flow(hyd.compile_line([hose(9.5, 1.0, bends=bends),
+                                               {"kind": "fitting", "bore_mm": 9.5, "shape": "elbow-90",
+                                                "passage_length_mm": 0.0}]), q, nu, rho)
+    fd = hyd.friction_factor(re, 0.005e-3 / d)
+    k_ref = sum(fluids.bend_rounded(Di=d, angle=b["angle_deg"], fd=fd, rc=b["radius_mm"] * 1e-3, Re=re,
+                                    method="Rennels") - fd * math.radians(b["angle_deg"]) * b["radius_mm"] * 1e-3 / d
+                for b in bends)
+    assert parts[0]["k_minor"] == pytest.approx(k_ref, rel=1e-12)
+    k_darby = fluids.Darby3K(Re=parts[1]["reynolds"], name="Elbow, 90°, threaded, standard, (r/D = 1)",
+                             NPS=d / 0.0254)
+    assert parts[1]["k_minor"] == pytest.approx(k_darby, rel=1e-12)
