@@ -251,6 +251,25 @@ def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict
     return out
 
 
+def build(job) -> tuple["Circuit | None", dict | None, list, list, list]:
+    """Validate a job and compile it: ``(circuit, normalised_job, problems, warnings, port_plans)``.
+
+    The steps every caller needs before solving operating points: validation
+    (``calc.model``), part data from the tables (``calc.ratings.prepare``) and
+    the port adapters (``port_stage``). ``circuit`` is ``None`` when there are
+    problems.
+    """
+    from . import ratings
+    norm, problems, warnings = validate_job(job)
+    if problems:
+        return None, None, problems, warnings, []
+    problems = ratings.prepare(norm)
+    if problems:
+        return None, None, problems, warnings, []
+    plans = port_stage(norm)
+    return Circuit(norm), norm, [], warnings, plans
+
+
 def port_stage(job: dict) -> list[dict]:
     """Plan the adapters at each line's start and end ports and put them in the line.
 
@@ -316,6 +335,16 @@ def port_checks(plans: list[dict], job: dict) -> list[list[dict]]:
                                                     f"{plan['message']}".strip()))
         out.append(checks)
     return out
+
+
+def lowest_part_limit(lines: list[dict]) -> tuple[float, str] | None:
+    """The lowest temperature limit of any rated part, with its description, or None."""
+    best = None
+    for ln in lines:
+        for p in (ln.get("rating") or {}).get("parts", []):
+            if p.get("max_temp_c") is not None and (best is None or p["max_temp_c"] < best[0]):
+                best = (p["max_temp_c"], f"{ln['name']} part {p['index']} ({p['description']})")
+    return best
 
 
 def steady_part_checks(lines: list[dict], conditions: list[dict], thermal_section: dict) -> None:
@@ -396,17 +425,11 @@ def evaluate(job) -> dict:
     >>> r["ok"], len(r["conditions"]) > 0
     (True, True)
     """
-    norm, problems, warnings = validate_job(job)
+    circuit, norm, problems, warnings, plans = build(job)
     if problems:
         return {"ok": False, "errors": [p.as_dict() for p in problems],
                 "warnings": [w.as_dict() for w in warnings]}
-    # -- stage: part data (calc.ratings.prepare fills hose bores and ratings from the tables) --
     from . import ratings, thermal
-    if problems := ratings.prepare(norm):
-        return {"ok": False, "errors": [p.as_dict() for p in problems], "warnings": [w.as_dict() for w in warnings]}
-    # -- stage: ports (adapters planned from each line's end ports join the line) --
-    plans = port_stage(norm)
-    circuit = Circuit(norm)
     conditions = [circuit.operating_point(c) for c in norm["conditions"]]
     checks = hydraulic_checks(circuit, conditions)
     warnings.extend(validity_warnings(circuit, conditions))
@@ -420,7 +443,7 @@ def evaluate(job) -> dict:
     # -- stage: ratings (calc.ratings.assess adds lines[j].rating, checks and candidates) --
     warnings.extend(ratings.assess(circuit, conditions, lines, norm))
     # -- stage: thermal (calc.thermal.assess adds conditions[i].heat_w and result["thermal"]) --
-    thermal_section = thermal.assess(circuit, conditions)
+    thermal_section = thermal.assess(circuit, conditions, part_limit=lowest_part_limit(lines))
     steady_part_checks(lines, conditions, thermal_section)
     for c in conditions:
         if c["relief_open"] and not c["full_lock"]:

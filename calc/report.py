@@ -68,7 +68,8 @@ def _thermal_lines(th: dict, units: str) -> list[str]:
         return "n/a" if v is None else f"{_u(v, 'temp_c', units, '{:.1f}')} {T}"
 
     out = ["", f"Fluid temperature: [{th['verdict']}] {th['message']}",
-           f"  air {temp(th['air_temp_c'])}, fluid limit {temp(th['limit_c'])}, target {temp(th['target_c'])}"]
+           f"  air {temp(th['air_temp_c'])}, limit {temp(th['limit_c'])} ({th.get('limit_basis', 'fluid')}), "
+           f"target {temp(th['target_c'])}"]
     st = th.get("steady", {})
     if th.get("steady_temp_c") is not None:
         out.append(f"  steady temperature {temp(th['steady_temp_c'])} (heat "

@@ -948,7 +948,8 @@ def _cooler_needed(model: ThermalModel, duty: list, target_c: float) -> dict:
     return out
 
 
-def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dict:
+def assess(circuit, conditions: list[dict], warnings: list | None = None,
+           part_limit: tuple[float, str] | None = None) -> dict:
     """The thermal stage: heat per operating point, steady temperature, full-lock hold, cooler advice.
 
     Adds ``heat_w``, ``heat_hydraulic_w``, ``heat_pump_loss_w``, ``heat_rejected_w`` and
@@ -976,11 +977,9 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     Examples
     --------
     >>> import json, importlib.resources as ir
-    >>> from calc.engine import Circuit
-    >>> from calc.model import validate_job
-    >>> job, _, _ = validate_job(json.loads((ir.files("calc") / "data" / "demos" /
-    ...                                      "compact-hatch.json").read_text()))
-    >>> c = Circuit(job)
+    >>> from calc.engine import build
+    >>> c, job, _, _, _ = build(json.loads((ir.files("calc") / "data" / "demos" /
+    ...                                     "compact-hatch.json").read_text()))
     >>> th = assess(c, [c.operating_point(x) for x in job["conditions"]])
     >>> th["verdict"] in ("ok", "caution", "fail"), th["steady_temp_c"] > th["air_temp_c"]
     (True, True)
@@ -989,6 +988,10 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
     job_conds = circuit.job["conditions"]
     fl = circuit.fluid
     limit = fl["max_temp_c"]
+    limit_basis = f"the fluid's limit {limit:.0f} C"
+    if part_limit is not None and part_limit[0] < limit:
+        limit = part_limit[0]
+        limit_basis = f"the limit {limit:.0f} C of {part_limit[1]}, the lowest of the circuit's parts"
     margin = model.th["limit_margin_c"]
     target = limit - margin
     ta = model.t_air_c
@@ -1000,7 +1003,7 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
         op["heat_rejected_w"] = b["rejection"]["total_w"]
         op["heat_rejected_detail"] = b["rejection"]
     checks = []
-    out = {"limit_c": limit, "target_c": target, "margin_c": margin, "air_temp_c": ta,
+    out = {"limit_c": limit, "limit_basis": limit_basis, "target_c": target, "margin_c": margin, "air_temp_c": ta,
            "method": list(METHOD), "hose_wall_defaulted": list(model.notes)}
     if model.notes:
         out["method"].append("Hose walls not given (" + ", ".join(model.notes) + ") use a typical wall for the "
@@ -1029,15 +1032,15 @@ def assess(circuit, conditions: list[dict], warnings: list | None = None) -> dic
             if steady > limit:
                 checks.append(_check("steady temperature", "fail",
                                      f"fit a cooler or cut the heat load: the fluid settles near {steady:.0f} C, "
-                                     f"above its limit {limit:.0f} C"))
+                                     f"above {limit_basis}"))
             elif steady > target:
                 checks.append(_check("steady temperature", "caution",
-                                     f"the fluid settles near {steady:.0f} C, within {margin:.0f} K of its limit "
-                                     f"{limit:.0f} C; a cooler is advised"))
+                                     f"the fluid settles near {steady:.0f} C, within {margin:.0f} K of "
+                                     f"{limit_basis}; a cooler is advised"))
             else:
                 checks.append(_check("steady temperature", "ok",
                                      f"the fluid settles near {steady:.0f} C with {ta:.0f} C air, at least "
-                                     f"{margin:.0f} K under its limit {limit:.0f} C"))
+                                     f"{margin:.0f} K under {limit_basis}"))
         else:
             checks.append(_check("steady temperature", "fail", res["message"]
                                  + ("; fit a cooler or cut the heat load" if res["status"] == "none below" else "")))

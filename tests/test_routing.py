@@ -91,7 +91,7 @@ def test_rigid_motion_invariance_and_length_bounds(pts, phi, shift):
 def test_route_forcing_a_tight_bend_fails_the_line():
     job = _demo()
     hose = job["lines"][0]["parts"][1]
-    hose.pop("bore_mm")
+    hose.pop("bore_mm", None)
     hose.update({"class": "SAE 100R2AT", "dash": 6})
     job["lines"][0]["route_points_mm"] = [[0, 0, 0], [60, 0, 0], [60, 60, 0]]
     ln = evaluate(job)["lines"][0]

@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 from calc import evaluate, thermal
-from calc.engine import Circuit
+from calc.engine import Circuit, build
 from calc.fluid import state as fluid_state
 from calc.model import validate_job
 
@@ -24,11 +24,8 @@ HP = 745.69987158227  # W per mechanical horsepower (550 ft lbf/s), exact by def
 
 def run(job):
     """Validate, compile, solve and run the thermal stage; returns (thermal, conditions)."""
-    norm, problems, _ = validate_job(copy.deepcopy(job))
+    circuit, norm, problems, _, _ = build(copy.deepcopy(job))
     assert not problems, [str(p) for p in problems]
-    from calc import ratings
-    assert not ratings.prepare(norm)
-    circuit = Circuit(norm)
     ops = [circuit.operating_point(c) for c in norm["conditions"]]
     return thermal.assess(circuit, ops), ops
 
@@ -372,8 +369,7 @@ def test_property_bigger_cooler_never_raises_steady(w1, factor):
 # -- 7. result and environment -----------------------------------------------------------
 def test_result_keys_and_demo_timing():
     import time
-    norm, _, _ = validate_job(demo_job())
-    circuit = Circuit(norm)
+    circuit, norm, _, _, _ = build(demo_job())
     ops = [circuit.operating_point(c) for c in norm["conditions"]]
     thermal.assess(circuit, [circuit.operating_point(c) for c in norm["conditions"]])  # warm the air cache
     t = time.perf_counter()
@@ -403,12 +399,12 @@ def test_evaluate_carries_thermal_section():
 def test_thermal_stage_runs_without_numpy_or_scipy():
     code = ("import sys; sys.modules['numpy'] = None; sys.modules['scipy'] = None\n"
             "import json, copy\n"
-            "from calc.engine import Circuit\nfrom calc.model import validate_job\nfrom calc import thermal\n"
+            "from calc.engine import build\nfrom calc import thermal\n"
             "from tests.jobs import demo_job\n"
             "j = demo_job(); j['thermal'] = {'cooler': {'type': 'tube', 'tube_length_m': 1.0, "
             "'fins_per_inch': 8, 'fin_od_mm': 22.0}}\n"
-            "n, p, _ = validate_job(j); assert not p\n"
-            "c = Circuit(n); th = thermal.assess(c, [c.operating_point(x) for x in n['conditions']])\n"
+            "c, n, p, _, _ = build(j); assert not p\n"
+            "th = thermal.assess(c, [c.operating_point(x) for x in n['conditions']])\n"
             "assert th['steady_temp_c'] is not None\n"
             "assert 'numpy' not in sys.modules or sys.modules['numpy'] is None\n"
             "print('ok')\n")
