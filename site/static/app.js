@@ -295,6 +295,7 @@ function startEngine() {
     } else if (message.type === "failed") {
       fail(message.message);
     } else if (message.type === "reply") {
+      if (typeof message.handle_ms === "number") body.dataset.handleMs = message.handle_ms.toFixed(1);
       const resolve = pending.get(message.id);
       pending.delete(message.id);
       if (resolve) resolve(JSON.parse(message.response));

@@ -94,8 +94,9 @@ function partsTable(result, job, li) {
     tb.append(hr);
     (line.parts || []).forEach((part, k) => {
       const node = (line.nodes || []).find((n) => n.after_part === k);
-      const tr = el("tr", { "data-part": String(k) });
-      tr.append(el("th", { scope: "row" }, partLabel(job, li, k)),
+      const jobPart = part.job_part === undefined ? k : part.job_part;
+      const tr = el("tr", { "data-part": String(k), "data-job-part": jobPart === null ? "adapter" : String(jobPart) });
+      tr.append(el("th", { scope: "row" }, part.adapter ? `adapter: ${part.adapter}` : partLabel(job, li, jobPart)),
         numCell("td", part.velocity_m_s, "speed_m_s", "velocity_m_s"),
         numCell("td", part.reynolds, null, "reynolds", 0),
         el("td", { "data-field": "regime" }, part.regime || ""),

@@ -67,8 +67,29 @@ export function renderSheet(job, result) {
     sec.append(el("h3", {}, badge(worstVerdict(r.checks)), ` Line ${li + 1}: `, el("span", {}, line.name || "(unnamed)"), ` (${line.role})`));
     const dl = el("dl", { class: "kv" });
     const row = (a, b) => dl.append(el("dt", {}, a), el("dd", {}, b));
-    row("Start", portText(line.from_port));
-    row("End", portText(line.to_port));
+    const parts = line.parts || [];
+    const endFitting = (which) => {
+      const marked = parts.find((p) => p.kind === "fitting" && p.end === which);
+      const edge = which === "start" ? parts[0] : parts[parts.length - 1];
+      return marked || (edge && edge.kind === "fitting" ? edge : null);
+    };
+    const endText = (port, which, plan) => {
+      const box = el("span", {}, portText(port));
+      const f = endFitting(which);
+      if (f) box.append(el("br"), `line fitting: ${partSpec(f)}; orientation ${typeof f.orientation_deg === "number" ? f.orientation_deg : 0}°`);
+      if (plan && Array.isArray(plan.adapters)) {
+        if (plan.adapters.length === 0) box.append(el("br"), "adapters: none needed");
+        for (const a of plan.adapters) {
+          box.append(el("br"), `adapter: ${a.name}; bore ${fmt(a.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}; working `
+            + (a.working_bar == null ? "unknown (maker's data)" : `${fmt(a.working_bar, "pressure_bar", [0, 0])} ${P}`));
+        }
+      }
+      if (plan && plan.message) box.append(el("br"), el("em", {}, plan.message));
+      return box;
+    };
+    const ports = r.ports || {};
+    row("Start", endText(line.from_port, "start", ports.from_port));
+    row("End", endText(line.to_port, "end", ports.to_port));
     const cut = checkMessage(r, "cut length");
     if (cut) row("Cut length", cut.message);
     else if (typeof line.overall_length_mm === "number") row("Overall length", `${fmt(line.overall_length_mm, "length_mm", [0, 2])} ${U("length_mm")}`);
@@ -112,6 +133,11 @@ export function renderSheet(job, result) {
       else if (p.kind === "tube") add(`Tube ${p.material || "steel-low-carbon"} ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")}`, p.length_m || 0, "length_m");
       else if (p.kind === "fitting") add(`Fitting ${p.shape || "straight"} ${p.family || "(family not named)"}${p.dash ? ` -${p.dash}` : ""}, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}`, 1, "count");
       else if (p.kind === "device") add(p.is_cooler ? "Cooler" : "Series device", 1, "count");
+    }
+  }
+  for (const r of result.lines || []) {
+    for (const plan of Object.values(r.ports || {})) {
+      for (const a of (plan && plan.adapters) || []) add(`Adapter ${a.name}`, 1, "count");
     }
   }
   const table = el("table", { class: "parts-list" });
