@@ -212,6 +212,13 @@ def _check(check: str, verdict: str, message: str) -> dict:
     return {"check": check, "verdict": verdict, "message": message}
 
 
+def _bore_advice(q_m3_s: float, v_max_m_s: float) -> str:
+    """'use -8 or a larger bore (at least 11.3 mm)': the smallest dash size under ``v_max`` at ``q``."""
+    d_mm = math.sqrt(4.0 * q_m3_s / (math.pi * v_max_m_s)) * 1e3
+    dash = max(2, math.ceil(d_mm / (25.4 / 16.0) - 1e-9))
+    return f"use -{dash} or a larger bore (at least {d_mm:.1f} mm)"
+
+
 def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict]]:
     """Velocity-band, regime and pump-inlet checks per line over all conditions."""
     out = []
@@ -222,20 +229,21 @@ def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict
         worst = max(conditions, key=lambda c: c["lines"][j]["velocity_max_m_s"])
         v = worst["lines"][j]["velocity_max_m_s"]
         band = f"{lo:g}-{hi:g} m/s for a {ln['role']} line (common practice)"
+        fix = _bore_advice(worst["lines"][j]["flow_lpm"] * LPM, hi)
         if v > 1.5 * hi:
-            checks.append(_check("velocity", "fail", f"use a larger bore: velocity {v:.1f} m/s at "
+            checks.append(_check("velocity", "fail", f"{fix}: velocity {v:.1f} m/s at "
                                                      f"'{worst['name']}' is far above {band}"))
         elif v > hi:
-            checks.append(_check("velocity", "caution", f"consider a larger bore: velocity {v:.1f} m/s at "
+            checks.append(_check("velocity", "caution", f"consider {fix[4:]}: velocity {v:.1f} m/s at "
                                                         f"'{worst['name']}' exceeds {band}"))
         else:
             checks.append(_check("velocity", "ok", f"velocity at most {v:.1f} m/s ('{worst['name']}'), "
                                                    f"within {band}"))
         trans = [c["name"] for c in conditions if c["lines"][j]["transitional"]]
         if trans:
-            checks.append(_check("regime", "caution", "flow in the laminar-turbulent band (Re 2000-4000) at "
-                                 + ", ".join(f"'{n}'" for n in trans) + ": friction interpolated between the "
-                                 "laminar and Colebrook values, so the drop there is less certain"))
+            checks.append(_check("regime", "ok", "flagged: flow in the laminar-turbulent band (Re 2000-4000) at "
+                                 + ", ".join(f"'{n}'" for n in trans) + "; friction interpolated between the "
+                                 "laminar and Colebrook values there, so those drops are less certain"))
         if ln["role"] == "feed" and ln is circuit.by_role["feed"][-1]:
             low = min(conditions, key=lambda c: c["pump_inlet_bar"])
             pin = low["pump_inlet_bar"]

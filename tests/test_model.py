@@ -205,3 +205,14 @@ def test_markdown_field_reference_lists_every_scalar_field():
     for path in ("`pump.relief_bar`", "`lines[].parts[].bore_mm`", "`conditions[].fluid_temp_c`",
                  "`thermal.air_temp_c`"):
         assert path in md
+
+
+def test_velocity_check_names_the_dash_size_to_use():
+    # Source: v = Q / A (exact) with the common-practice 6 m/s ceiling for a pressure line: 10 L/min
+    # needs a bore of at least sqrt(4 Q / (pi 6)) = 5.95 mm, i.e. -4 (6.35 mm).
+    job = simple_job(bore_mm=4.0, flow_lpm=10.0)
+    job["pump"]["displacement_cc_rev"] = 20.0
+    job["conditions"] = [{"name": "run", "engine_rpm": 2000, "fluid_temp_c": 80}]
+    res = evaluate(job)
+    vel = next(c for c in res["lines"][0]["checks"] if c["check"] == "velocity")
+    assert vel["verdict"] == "fail" and "use -4 or a larger bore (at least 5.9 mm)" in vel["message"]
