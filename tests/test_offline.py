@@ -22,7 +22,8 @@ from urllib.parse import urlsplit
 
 import pytest
 
-from .browser_support import LAUNCH_ARGS, find_chromium, load_build_module, serve_directory
+from .browser_support import (BYTECODE_STORED, LAUNCH_ARGS, find_chromium, load_build_module, serve_directory,
+                              wait_until)
 
 build = load_build_module()
 BOOT_TIMEOUT_MS = 120_000
@@ -149,6 +150,10 @@ def _wait(page, attribute, wanted, log, others=("failed",)):
                     + "\n".join(log["console"][-20:]))
 
 
+def _build_caches(page):
+    return [k for k in page.evaluate("caches.keys()") if not k.endswith("-bytecode")]
+
+
 def _assert_same_origin(log, base_url):
     origin = urlsplit(base_url)[:2]
     foreign = sorted({u for u in log["requests"] if urlsplit(u)[:2] != origin})
@@ -180,13 +185,20 @@ def test_page_loads_and_computes_offline_after_one_visit(browser, plain_static_s
     _wait(page, "engine", "ready", log)
     _wait(page, "offline", "ready", log)  # the whole build is stored
     keys = page.evaluate("caches.keys()")
-    assert len(keys) == 1 and keys[0].startswith("linesmith-"), keys
+    builds = [k for k in keys if not k.endswith("-bytecode")]
+    assert len(builds) == 1 and builds[0].startswith("linesmith-"), keys
+    assert all(k.startswith(builds[0]) for k in keys), keys  # worker.js's bytecode: same build
+
+    # worker.js keeps the engine's compiled bytecode after the first result.
+    wait_until(page, BYTECODE_STORED, BOOT_TIMEOUT_MS / 1000)
 
     context.set_offline(True)
     started = time.perf_counter()
     page.reload()
     _wait(page, "engine", "ready", log)  # first result on screen, computed with no network
-    print(f"\noffline reload to first result: {time.perf_counter() - started:.2f} s")
+    timings = json.loads(page.get_attribute("body", "data-worker-timings") or "{}")
+    print(f"\noffline reload to first result: {time.perf_counter() - started:.2f} s, worker {timings}")
+    assert timings.get("bytecode_cached") is True, timings  # and the engine ran from it
     assert page.evaluate("navigator.serviceWorker.controller !== null")
     # Truly offline: a file that is not part of the build cannot be fetched.
     assert page.evaluate("fetch('./not-in-the-build.txt').then(() => 'online', () => 'offline')") == "offline"
@@ -225,14 +237,16 @@ def test_new_build_replaces_the_cache_without_mixing_builds(browser, tmp_path):
         # The open page of the first build is still served the first build only.
         assert page.evaluate(stamp) == "first"
         assert page.evaluate(build_of) == first["build"]
-        assert sorted(page.evaluate("caches.keys()")) == sorted(
+        assert sorted(_build_caches(page)) == sorted(
             [f"linesmith-{first['build']}", f"linesmith-{second['build']}"])
 
         with page.expect_navigation():
             assert page.evaluate("window.linesmithOffline.applyUpdate()") is True
         _wait(page, "engine", "ready", log)
         _wait(page, "offline", "ready", log)
-        assert page.evaluate("caches.keys()") == [f"linesmith-{second['build']}"]  # the old cache is gone
+        # The old build's caches are gone (its files and worker.js's bytecode alike).
+        assert _build_caches(page) == [f"linesmith-{second['build']}"]
+        assert all(k.startswith(f"linesmith-{second['build']}") for k in page.evaluate("caches.keys()"))
         assert page.evaluate(stamp) == "second"
         assert page.evaluate(build_of) == second["build"]
         assert page.evaluate("window.__cspViolations") == []

@@ -59,7 +59,8 @@ self.addEventListener("install", (event) => {
 self.addEventListener("activate", (event) => {
   event.waitUntil((async () => {
     for (const name of await caches.keys()) {
-      if (name.startsWith(PREFIX) && name !== CACHE) await caches.delete(name);
+      // Every other build's caches go, with their "-bytecode" companions (worker.js).
+      if (name.startsWith(PREFIX) && name !== CACHE && !name.startsWith(`${CACHE}-`)) await caches.delete(name);
     }
     await self.clients.claim();
   })());
