@@ -2,7 +2,7 @@
 // fills it from the job, writes edits back (engine units), and renders the lists
 // (operating points, lines, parts, bends) from the <template> of their record kind.
 import { clone, deletePath, el, getPath, parsePath, setPath } from "./util.js";
-import { dashText, fromShow, inputText, unitLabel, UNITS } from "./units.js";
+import { dashText, fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
 
 let model = null;       // describe_job()
 let state = null;       // { job } owned by app.js
@@ -118,7 +118,8 @@ function updateDash(input) {
   const out = input.closest(".fld")?.querySelector("output.dash");
   if (!out) return;
   const v = shownValue(input.dataset.path);
-  out.textContent = typeof v === "number" ? `dash ${dashText(v)}` : "";
+  const text = typeof v === "number" ? dashText(v) : "";
+  out.textContent = text ? `dash ${text}` : "";
 }
 
 export function fillAll() {
@@ -351,7 +352,12 @@ export function showErrors(errors) {
     if (target.matches("[data-key]")) {
       const p = target.closest(".fld").querySelector(".fld-error");
       if (p.dataset.local) continue;
-      p.textContent = p.textContent ? `${p.textContent}; ${e.message}` : e.message;
+      // the engine words its limits in engine units; say so when another unit is shown
+      const unit = target.dataset.unit;
+      const note = unit && getSystem() !== "metric" && unitLabel(unit, "metric") !== unitLabel(unit)
+        ? ` (engine units: ${unitLabel(unit, "metric")}; see "about" for the limits in ${unitLabel(unit)})` : "";
+      const msg = e.message + note;
+      p.textContent = p.textContent ? `${p.textContent}; ${msg}` : msg;
       p.hidden = false;
       target.setAttribute("aria-invalid", "true");
     } else {

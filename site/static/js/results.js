@@ -25,8 +25,9 @@ function partLabel(job, li, k) {
   const p = ((job.lines || [])[li] || {}).parts?.[k] || {};
   const bits = [p.kind || "part"];
   if (p.class) bits.push(`${p.class}${p.dash ? ` -${p.dash}` : ""}`);
-  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm")} x ${fmt(p.wall_mm, "length_mm")} ${U("length_mm")}`);
-  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm")} ${U("length_mm")} bore`);
+  const dash = (mm) => `-${Math.round(mm / 25.4 * 16)}`;
+  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")} (${dash(p.od_mm)})`);
+  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} bore (${dash(p.bore_mm)})`);
   if (p.shape && p.shape !== "straight") bits.push(p.shape);
   return `${k}: ${bits.join(" ")}`;
 }
@@ -272,7 +273,7 @@ export function renderProblems(errors, localErrors) {
   if (!all.length) return;
   box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; the results below are for the last job that computed:`));
   const ul = el("ul");
-  for (const e of all) ul.append(el("li", { "data-path": e.path || "" }, e.path ? `${e.path}: ${e.message}` : e.message));
+  for (const e of all) ul.append(el("li", { "data-problem-path": e.path || "" }, e.path ? `${e.path}: ${e.message}` : e.message));
   box.append(ul);
 }
 
