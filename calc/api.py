@@ -54,9 +54,18 @@ def handle(request_json: str) -> str:
             request = json.loads(request_json)
         except (ValueError, RecursionError) as exc:
             return json.dumps(_err("", f"the request is not valid JSON ({exc})"))
-        return json.dumps(dispatch(request), allow_nan=False)
+        return dumps(dispatch(request))
     except Exception as exc:  # the page must always get an answer it can show
         return json.dumps(_err("", f"internal error: {type(exc).__name__}: {exc}"))
+
+
+def dumps(obj, **kw) -> str:
+    """JSON text with no NaN or infinity (they become null, never expected from the engine)."""
+    try:
+        return json.dumps(obj, allow_nan=False, **kw)
+    except ValueError:
+        from .engine import finite
+        return json.dumps(finite(obj), allow_nan=False, **kw)
 
 
 def _err(path: str, message: str) -> dict:

@@ -30,7 +30,8 @@ def _cmd_evaluate(args) -> int:
             print(f"{e['path'] or 'job'}: {e['message']}", file=sys.stderr)
         return 2
     if args.json:
-        json.dump(res, sys.stdout, indent=1, allow_nan=False)
+        from .api import dumps
+        sys.stdout.write(dumps(res, indent=1))
         print()
     else:
         print(text_report(res, units=args.units))
