@@ -5,6 +5,9 @@ source is assembled anywhere. Requests:
 
 - ``{"op": "evaluate", "job": {...}}`` -> ``{"ok": true, "result": {...}}`` or
   ``{"ok": false, "errors": [...], "warnings": [...]}``;
+- ``{"op": "sweep", "job": {...}}`` -> the hydraulics only at each operating point
+  (``calc.engine.sweep``), for the page's plots;
+- ``{"op": "thread", "args": {"major_mm", "pitch_mm", "male", "tapered"}}`` -> thread candidates;
 - ``{"op": "describe"}`` -> ``{"ok": true, "model": {...}}``.
 
 ``handle`` never raises: an internal error comes back as an error response
@@ -27,6 +30,12 @@ def dispatch(request: dict) -> dict:
     if op == "evaluate":
         from .engine import evaluate
         res = evaluate(request.get("job"))
+        if not res.get("ok"):
+            return {"ok": False, "errors": res["errors"], "warnings": res.get("warnings", [])}
+        return {"ok": True, "result": res}
+    if op == "sweep":
+        from .engine import sweep
+        res = sweep(request.get("job"))
         if not res.get("ok"):
             return {"ok": False, "errors": res["errors"], "warnings": res.get("warnings", [])}
         return {"ok": True, "result": res}

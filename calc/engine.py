@@ -413,6 +413,31 @@ def finite(obj):
     return obj
 
 
+def sweep(job) -> dict:
+    """Hydraulics only, at each of the job's operating points: the cheap call behind the page's plots.
+
+    Validation, part data and ports as ``evaluate``; then every operating point
+    is solved without per-part detail, and neither the ratings nor the thermal
+    stage runs. The page sends the job with a sweep of temperatures as its
+    conditions to plot pressure drop against fluid temperature.
+
+    Returns
+    -------
+    dict
+        ``{"ok": True, "lines": [{"name", "role"}], "conditions": [{"name",
+        "fluid_temp_c", "pump_outlet_bar", "pump_inlet_bar", "circuit_flow_lpm",
+        "lines": [{"pressure_drop_bar", ...}]}]}`` or the errors as in ``evaluate``.
+    """
+    circuit, norm, problems, warnings, _ = build(job)
+    if problems:
+        return {"ok": False, "errors": [p.as_dict() for p in problems],
+                "warnings": [w.as_dict() for w in warnings]}
+    conds = [circuit.operating_point(c, detail=False) for c in norm["conditions"]]
+    return {"ok": True, "lines": [{"name": ln["name"], "role": ln["role"]} for ln in circuit.lines],
+            "conditions": [{k: c[k] for k in ("name", "fluid_temp_c", "viscosity_cst", "pump_outlet_bar",
+                                              "pump_inlet_bar", "circuit_flow_lpm", "lines")} for c in conds]}
+
+
 def evaluate(job) -> dict:
     """Evaluate a job.
 

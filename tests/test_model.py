@@ -216,3 +216,17 @@ def test_velocity_check_names_the_dash_size_to_use():
     res = evaluate(job)
     vel = next(c for c in res["lines"][0]["checks"] if c["check"] == "velocity")
     assert vel["verdict"] == "fail" and "use -4 or a larger bore (at least 5.9 mm)" in vel["message"]
+
+
+def test_sweep_gives_the_same_drops_as_evaluate():
+    # Source: exact (the sweep is the same circuit solve without per-part detail).
+    import json as _json
+    from calc.api import handle
+    job = demo_job()
+    job["conditions"] = [{"name": f"t{t}", "engine_rpm": 1500, "fluid_temp_c": t} for t in (-10, 30, 90)]
+    full = evaluate(job)
+    sw = _json.loads(handle(_json.dumps({"op": "sweep", "job": job})))
+    assert sw["ok"]
+    for a, b in zip(full["conditions"], sw["result"]["conditions"]):
+        for la, lb in zip(a["lines"], b["lines"]):
+            assert lb["pressure_drop_bar"] == pytest.approx(la["pressure_drop_bar"], rel=1e-12)

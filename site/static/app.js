@@ -137,7 +137,7 @@ async function runSweep(rev) {
   if (inflight || rev !== state.rev || !state.result) return;
   const { job, rpm } = sweepJob(state.resultJob, state.result.conditions);
   inflight = true;
-  const reply = await call({ op: "evaluate", job });
+  const reply = await call({ op: "sweep", job });
   inflight = false;
   if (again) { again = false; recalc(); }
   if (rev !== state.rev) return; // stale
