@@ -3,7 +3,9 @@
 The worker sends one JSON request and receives one JSON response; no Python
 source is assembled anywhere. Requests:
 
-- ``{"op": "evaluate", "job": {...}}`` -> ``{"ok": true, "result": {...}}`` or
+- ``{"op": "evaluate", "job": {...}, "units": "metric" | "us"}`` -> ``{"ok": true, "result": {...}}``
+  (with ``"units": "us"`` the figures inside the sentences of checks and messages are
+  given in US units; the numbers of the result stay in engine units) or
   ``{"ok": false, "errors": [...], "warnings": [...]}``;
 - ``{"op": "sweep", "job": {...}}`` -> the hydraulics only at each operating point
   (``calc.engine.sweep``), for the page's plots;
@@ -29,10 +31,11 @@ def dispatch(request: dict) -> dict:
     op = request.get("op")
     if op == "evaluate":
         from .engine import evaluate
+        from .units import localize_result
         res = evaluate(request.get("job"))
         if not res.get("ok"):
             return {"ok": False, "errors": res["errors"], "warnings": res.get("warnings", [])}
-        return {"ok": True, "result": res}
+        return {"ok": True, "result": localize_result(res, request.get("units", "metric"))}
     if op == "sweep":
         from .engine import sweep
         res = sweep(request.get("job"))

@@ -1,7 +1,9 @@
 """The readable text report of an evaluated job (command line)."""
 from __future__ import annotations
 
-from .units import label, to_display
+import copy
+
+from .units import label, localize_result, to_display
 
 __all__ = ["text_report", "CAUTIONS"]
 
@@ -109,6 +111,7 @@ def text_report(res: dict, units: str = "metric") -> str:
     units : str
         'metric' (bar, L/min, mm, C) or 'us' (psi, gpm, in, F).
     """
+    res = localize_result(copy.deepcopy(res), units) if units == "us" else res
     P, Q, T, V = (label(k, units) for k in ("pressure_bar", "flow_lpm", "temp_c", "speed_m_s"))
     out = [f"Linesmith report: {res['job_name'] or '(unnamed job)'}",
            f"Fluid: {res['fluid']['name']} ({res['fluid']['source']})", ""]

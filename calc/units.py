@@ -9,7 +9,9 @@ Factors are exact by definition (NIST SP 811) unless noted: 1 in = 25.4 mm,
 """
 from __future__ import annotations
 
-__all__ = ["UNITS", "to_display", "label"]
+import re
+
+__all__ = ["UNITS", "to_display", "label", "localize_text", "localize_result"]
 
 PSI_PER_BAR = 1e5 / 6894.757293168361
 GPM_PER_LPM = 1.0 / 3.785411784
@@ -65,3 +67,85 @@ def label(kind: str, system: str = "metric") -> str:
     if kind not in UNITS:
         return ""
     return UNITS[kind][0 if system == "metric" else 1]
+
+
+# -- sentences -------------------------------------------------------------------
+# The engine's check messages carry metric figures ("106.2 bar", "-40 to 100 C", "+18 / -36 mm").
+# For a US display the page asks for them converted: each figure followed by a metric unit is
+# rewritten with the same conversions as above; ranges ("2-6 m/s", "-40 to 100 C", "9.53 x 0.89 mm")
+# are converted figure by figure.
+def _fmt(v: float, kind: str = "") -> str:
+    if kind in ("temp_c", "temp_diff_c"):
+        return f"{v:.0f}"
+    a = abs(v)
+    if a >= 100:
+        return f"{v:.0f}"
+    if a >= 10:
+        return f"{v:.1f}"
+    if a >= 1:
+        return f"{v:.2f}"
+    return f"{v:.3f}"
+
+
+#: metric unit word in a sentence -> (unit kind, US word)
+_SENTENCE_UNITS = {
+    "bar": ("pressure_bar", "psi"), "L/min": ("flow_lpm", "gpm"), "m/s": ("speed_m_s", "ft/s"),
+    "mm": ("length_mm", "in"), "m": ("length_m", "ft"), "C": ("temp_c", "F"), "°C": ("temp_c", "°F"),
+    "K": ("temp_diff_c", "F"), "W/K": ("conductance_w_k", "BTU/(h·F)"), "W": ("power_w", "BTU/h"),
+    "L": ("volume_l", "US gal"),
+}
+_NUM = r"[+-]?\d+(?:\.\d+)?"
+_SEP = r"(?:\s*(?:to|/|-|x)\s*)"
+_UNIT_ALT = "|".join(re.escape(u) for u in sorted(_SENTENCE_UNITS, key=len, reverse=True))
+_FIGURE = re.compile(rf"(?<![\w.]){_NUM}(?:{_SEP}{_NUM})* (?:{_UNIT_ALT})(?![\w/·³²])")
+_ONE = re.compile(_NUM)
+
+
+def localize_text(text: str, system: str = "metric") -> str:
+    """Rewrite the metric figures of an engine sentence in the display system.
+
+    Examples
+    --------
+    >>> localize_text("must hold 106.2 bar; the fluid runs -40 to 100 C", "us")
+    'must hold 1540 psi; the fluid runs -40 to 212 F'
+    >>> localize_text("velocity 4.4 m/s exceeds 2-6 m/s; use -6 or a larger bore (at least 8.0 mm)", "us")
+    'velocity 14.4 ft/s exceeds 6.56-19.7 ft/s; use -6 or a larger bore (at least 0.315 in)'
+    """
+    if system != "us" or not isinstance(text, str):
+        return text
+
+    def one(m):
+        figure = m.group(0)
+        num_part, unit = figure.rsplit(" ", 1)
+        kind, us_word = _SENTENCE_UNITS[unit]
+
+        def conv(n):
+            v = float(n.group(0))
+            out = _fmt(to_display(v, kind, "us"), kind)
+            return ("+" + out) if n.group(0).startswith("+") and not out.startswith("-") else out
+        # a range joined by "-" has its second figure unsigned ("2-6"): keep the joiner
+        converted = re.sub(rf"(?<=\d)-(?=\d)", " - ", num_part)
+        converted = _ONE.sub(conv, converted).replace(" - ", "-")
+        return f"{converted} {us_word}"
+    return _FIGURE.sub(one, text)
+
+
+_TEXT_KEYS = ("message", "cooler_message", "required_basis", "limit_basis")
+
+
+def localize_result(obj, system: str = "metric"):
+    """Apply ``localize_text`` to every sentence of a result, in place; returns ``obj``."""
+    if system != "us":
+        return obj
+    if isinstance(obj, dict):
+        for k, v in obj.items():
+            if k in _TEXT_KEYS and isinstance(v, str):
+                obj[k] = localize_text(v, system)
+            elif k == "reasons" and isinstance(v, list):
+                obj[k] = [localize_text(x, system) for x in v]
+            elif isinstance(v, (dict, list)):
+                localize_result(v, system)
+    elif isinstance(obj, list):
+        for v in obj:
+            localize_result(v, system)
+    return obj

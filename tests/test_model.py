@@ -230,3 +230,17 @@ def test_sweep_gives_the_same_drops_as_evaluate():
     for a, b in zip(full["conditions"], sw["result"]["conditions"]):
         for la, lb in zip(a["lines"], b["lines"]):
             assert lb["pressure_drop_bar"] == pytest.approx(la["pressure_drop_bar"], rel=1e-12)
+
+
+def test_sentences_in_us_units():
+    # Source: exact conversions (NIST SP 811: 1 psi = 6894.757 Pa, 1 in = 25.4 mm, F = 1.8 C + 32).
+    from calc.units import localize_result, localize_text
+    assert localize_text("must hold 100 bar at 100 C", "us") == "must hold 1450 psi at 212 F"
+    assert localize_text("radius 127 mm is under 254 mm", "us") == "radius 5.00 in is under 10.0 in"
+    assert localize_text("use -8 or a larger bore", "us") == "use -8 or a larger bore"
+    assert localize_text("must hold 100 bar", "metric") == "must hold 100 bar"
+    res = evaluate(demo_job())
+    us = localize_result(json.loads(json.dumps(res)), "us")
+    msgs = [c["message"] for ln in us["lines"] for c in ln["checks"]]
+    assert all(" bar" not in m for m in msgs)
+    assert us["conditions"][0]["pump_outlet_bar"] == res["conditions"][0]["pump_outlet_bar"]

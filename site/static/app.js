@@ -95,7 +95,7 @@ async function recalc() {
   const rev = state.rev;
   const job = clone(state.job);
   const t0 = performance.now();
-  const reply = await call({ op: "evaluate", job });
+  const reply = await call({ op: "evaluate", job, units: getSystem() });
   const ms = performance.now() - t0;
   inflight = false;
   if (again || rev !== state.rev) { // stale: a newer edit is waiting
@@ -190,6 +190,7 @@ function setUnits(system) {
   for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
   fillAll();
   if (state.result) show();
+  recalc(); // the sentences of the checks come back with their figures in the new units
 }
 
 function toolbar() {
