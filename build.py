@@ -133,6 +133,19 @@ def pyodide_tarball(cache_dir: Path = CACHE_DIR) -> Path:
     return tarball
 
 
+def trim_lockfile(data: bytes) -> bytes:
+    """Pyodide's lock file without its package list (119 kB -> under 1 kB).
+
+    The list names the packages loadPackage() could fetch; the page ships none of
+    them (its three wheels are unpacked by worker.js), so every entry would point
+    at a file that is not there. loadPyodide() still reads ``info`` (the Python
+    and ABI version), which is kept as it is.
+    """
+    lock = json.loads(data)
+    lock["packages"] = {}
+    return (json.dumps(lock, sort_keys=True, separators=(",", ":")) + "\n").encode()
+
+
 def copy_pyodide(tarball: Path, out_dir: Path) -> None:
     """Extract only PYODIDE_FILES from the verified tarball into out_dir."""
     out_dir.mkdir(parents=True, exist_ok=True)
@@ -143,6 +156,9 @@ def copy_pyodide(tarball: Path, out_dir: Path) -> None:
             if name is None or not member.isfile():
                 continue
             src = tar.extractfile(member)
+            if name == "pyodide-lock.json":
+                (out_dir / name).write_bytes(trim_lockfile(src.read()))
+                continue
             with open(out_dir / name, "wb") as dst:
                 shutil.copyfileobj(src, dst, 1 << 20)
     if wanted:
@@ -267,6 +283,127 @@ def copy_wheel_licences(wheel: Path, out_dir: Path) -> list[str]:
 
 
 # --------------------------------------------------------------------------
+# bytecode for the browser's Python
+
+# The browser runs CPython 3.14 (Pyodide), whose bytecode the build's Python
+# cannot write. Pyodide itself can: build.py boots the very Pyodide it ships
+# under Node.js (already needed to fetch it), installs the three wheels, imports
+# what the engine imports at start (through linesmith_boot's lazy packages, as
+# the browser does) and writes checked-hash .pyc files (Python checks each
+# against its source's hash on import, so a stale one is never run). Compiling
+# in the browser instead costs about 0.85 s of every start (bench/browser_bench.py).
+# Cached in .buildcache/bytecode/ by the inputs' hashes.
+BYTECODE_FILE = "bytecode-cp314.zip"
+BYTECODE_IMPORTS = ("calc.api", "calc.engine", "calc.thermal")
+
+_BYTECODE_NODE = r"""
+import fs from "node:fs";
+import path from "node:path";
+import { pathToFileURL } from "node:url";
+const [indexDir, outZip, code, boot, ...wheels] = process.argv.slice(2);
+const { loadPyodide } = await import(pathToFileURL(path.join(indexDir, "pyodide.mjs")).href);
+const py = await loadPyodide({ indexURL: indexDir + path.sep, stdout: () => {}, stderr: () => {} });
+const sitePackages = py.pyimport("site").getsitepackages()[0];
+for (const wheel of wheels) py.unpackArchive(new Uint8Array(fs.readFileSync(wheel)), "wheel", { extractDir: sitePackages });
+py.FS.writeFile(path.posix.join(sitePackages, "linesmith_boot.py"), fs.readFileSync(boot, "utf8"));
+const result = py.runPython(fs.readFileSync(code, "utf8"));
+fs.writeFileSync(outZip, result.toJs());
+"""
+
+# Runs in Pyodide under Node.js: (1) from the full packages, which submodule defines each
+# name calc imports from fluids and ht; (2) in a clean import state, the engine's start-up
+# imports through linesmith_boot's lazy packages; (3) those modules' bytecode, and the
+# table, in one zip.
+_BYTECODE_PY = """
+import ast, importlib, importlib.util, io, json, pathlib, py_compile, site, sys, zipfile
+sp = site.getsitepackages()[0]
+importlib.invalidate_caches()
+wanted = {}
+for path in sorted(pathlib.Path(sp, "calc").glob("*.py")):
+    for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+        if isinstance(node, ast.ImportFrom) and node.level == 0 and node.module in ("fluids", "ht"):
+            wanted.setdefault(node.module, set()).update(a.name for a in node.names)
+table = {}
+for package, names in sorted(wanted.items()):
+    module = importlib.import_module(package)
+    table[package] = {n: getattr(module, n).__module__[len(package) + 1:] for n in sorted(names)
+                      if getattr(getattr(module, n, None), "__module__", "").startswith(package + ".")}
+for name in [m for m in sys.modules if m.split(".")[0] in ("fluids", "ht", "calc", "linesmith_boot")]:
+    del sys.modules[name]
+import linesmith_boot
+linesmith_boot.install_lazy_packages(table)
+for name in IMPORTS:
+    importlib.import_module(name)
+files = sorted({m.__file__ for m in list(sys.modules.values())
+                if (getattr(m, "__file__", None) or "").startswith(sp) and m.__file__.endswith(".py")
+                and not m.__file__.endswith("/linesmith_boot.py")})
+out = io.BytesIO()
+with zipfile.ZipFile(out, "w") as zf:
+    zi = zipfile.ZipInfo("linesmith-lazy-names.json", (1980, 1, 1, 0, 0, 0))
+    zf.writestr(zi, json.dumps(table, sort_keys=True))
+    for f in files:
+        c = importlib.util.cache_from_source(f)
+        py_compile.compile(f, cfile=c, doraise=True, invalidation_mode=py_compile.PycInvalidationMode.CHECKED_HASH)
+        zi = zipfile.ZipInfo(c[len(sp):].lstrip("/"), (1980, 1, 1, 0, 0, 0))
+        zi.compress_type = zipfile.ZIP_DEFLATED
+        with open(c, "rb") as fh:
+            zf.writestr(zi, fh.read())
+out.getvalue()
+"""
+BOOT_MODULE = SITE_DIR / "static" / "linesmith_boot.py"
+LAZY_MARK = "LAZY_NAMES = {}  # filled in by build.py"
+
+
+def compile_bytecode(pyodide_dir: Path, wheels: list[Path], out: Path, cache_dir: Path = CACHE_DIR) -> dict | None:
+    """Write the engine's start-up modules as Python 3.14 bytecode (a zip of __pycache__ files).
+
+    Returns the lazy-import table ({package: {name: submodule}}) for linesmith_boot.py, or
+    None, writing nothing, when Node.js is missing or the compile fails: the page then
+    works as before, compiling in the browser and importing the packages whole.
+    """
+    h = hashlib.sha256(PYODIDE_INTEGRITY.encode() + _BYTECODE_NODE.encode() + _BYTECODE_PY.encode()
+                       + repr(BYTECODE_IMPORTS).encode() + BOOT_MODULE.read_bytes())
+    for wheel in wheels:
+        h.update(wheel.name.encode() + bytes.fromhex(_sha256_file(wheel)))
+    cached = cache_dir / "bytecode" / f"{h.hexdigest()}.zip"
+    if not cached.exists():
+        node = shutil.which("node")
+        if node is None:
+            return None
+        cached.parent.mkdir(parents=True, exist_ok=True)
+        with tempfile.TemporaryDirectory(dir=cached.parent) as tmp:
+            script, code, zipped = Path(tmp) / "compile.mjs", Path(tmp) / "compile.py", Path(tmp) / "out.zip"
+            script.write_text(_BYTECODE_NODE, encoding="utf-8")
+            code.write_text(f"IMPORTS = {BYTECODE_IMPORTS!r}\n" + _BYTECODE_PY, encoding="utf-8")
+            try:
+                proc = subprocess.run([node, str(script), str(pyodide_dir.resolve()), str(zipped), str(code),
+                                       str(BOOT_MODULE), *[str(w.resolve()) for w in wheels]],
+                                      capture_output=True, text=True, timeout=300)
+            except (OSError, subprocess.TimeoutExpired):
+                return None
+            if proc.returncode != 0 or not zipped.exists() or not zipfile.is_zipfile(zipped):
+                return None
+            os.replace(zipped, cached)
+        # One zip per engine version: keep the few newest.
+        for stale in sorted(cached.parent.glob("*.zip"), key=lambda p: p.stat().st_mtime)[:-4]:
+            stale.unlink(missing_ok=True)
+    with zipfile.ZipFile(cached) as zf:
+        table = json.loads(zf.read("linesmith-lazy-names.json"))
+    shutil.copyfile(cached, out)
+    return table
+
+
+def write_boot_module(out_dir: Path, table: dict | None) -> None:
+    """Fill the lazy-import table into out_dir/linesmith_boot.py (empty table: plain imports)."""
+    path = out_dir / "linesmith_boot.py"
+    text = path.read_text(encoding="utf-8")
+    if LAZY_MARK not in text:
+        raise BuildError("site/static/linesmith_boot.py lacks its LAZY_NAMES line; restore it from git.")
+    path.write_text(text.replace(LAZY_MARK, f"LAZY_NAMES = {json.dumps(table or {}, sort_keys=True)}", 1),
+                    encoding="utf-8")
+
+
+# --------------------------------------------------------------------------
 # page
 
 
@@ -293,7 +430,7 @@ def _page_model() -> dict:
             "cautions": list(CAUTIONS)}
 
 
-def render_page(out_dir: Path, demos: list[dict], wheels: list[str]) -> None:
+def render_page(out_dir: Path, demos: list[dict], wheels: list[str], bytecode: str | None = None) -> None:
     import jinja2  # build-time only
 
     env = jinja2.Environment(
@@ -303,6 +440,8 @@ def render_page(out_dir: Path, demos: list[dict], wheels: list[str]) -> None:
         keep_trailing_newline=True,
     )
     config = {"pyodide": "./pyodide/", "wheels": [f"./wheels/{w}" for w in wheels]}
+    if bytecode:
+        config["bytecode"] = f"./wheels/{bytecode}"  # passed on to worker.js by the page's init message
     html = env.get_template("index.html.j2").render(
         csp=CONTENT_SECURITY_POLICY,
         config=config,
@@ -454,7 +593,11 @@ def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
         for icon in sorted((SITE_DIR / "icons").glob("icon*")):
             shutil.copyfile(icon, stage / "icons" / icon.name)
 
-        render_page(stage, demos, [calc_wheel.name] + [w.name for w in other_wheels])
+        lazy_names = compile_bytecode(stage / "pyodide", [calc_wheel, *other_wheels],
+                                      wheel_dir / BYTECODE_FILE, cache_dir)
+        write_boot_module(stage, lazy_names)
+        render_page(stage, demos, [calc_wheel.name] + [w.name for w in other_wheels],
+                    BYTECODE_FILE if lazy_names is not None else None)
         for rel, data in (extra_files or {}).items():
             target = stage / rel
             target.parent.mkdir(parents=True, exist_ok=True)

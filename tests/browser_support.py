@@ -153,10 +153,14 @@ _api.dispatch = _fail_once
 
 
 def engine_config(manifest: dict) -> dict:
-    """The worker's init config for a built site: Pyodide folder and wheels, ours first."""
+    """The worker's init config for a built site: Pyodide folder, wheels (ours first), bytecode."""
     wheels = sorted((e["path"] for e in manifest["files"] if e["path"].startswith("wheels/")
                      and e["path"].endswith(".whl")), key=lambda p: (not p.startswith("wheels/linesmith-"), p))
-    return {"pyodide": "./pyodide/", "wheels": [f"./{w}" for w in wheels]}
+    config = {"pyodide": "./pyodide/", "wheels": [f"./{w}" for w in wheels]}
+    bytecode = [e["path"] for e in manifest["files"] if e["path"].startswith("wheels/") and e["path"].endswith(".zip")]
+    if bytecode:
+        config["bytecode"] = f"./{bytecode[0]}"  # as build.py's page config passes it
+    return config
 
 
 def probe_worker(page):
@@ -205,27 +209,3 @@ def compare_json(got, want, path="result", rel=1e-9, abs_tol=1e-12, diffs=None):
         diffs["problems"].append(f"{path}: unexpected type {type(want).__name__}")
     return diffs
 
-
-# True once worker.js has stored the engine's compiled bytecode in Cache Storage.
-BYTECODE_STORED = """
-async () => {
-  for (const name of await caches.keys()) {
-    if (name.endsWith("-bytecode") && (await (await caches.open(name)).keys()).length) return true;
-  }
-  return false;
-}
-"""
-
-
-def wait_until(page, expression: str, timeout_s: float = 60.0, every_s: float = 0.25):
-    """Evaluate expression (may return a promise) until it is truthy; fail after timeout_s."""
-    import time
-
-    deadline = time.monotonic() + timeout_s
-    while True:
-        value = page.evaluate(expression)
-        if value:
-            return value
-        if time.monotonic() > deadline:
-            raise AssertionError(f"timed out after {timeout_s} s waiting for {expression.strip()[:80]}")
-        time.sleep(every_s)

@@ -33,7 +33,10 @@ async function precache() {
       // "no-cache" revalidates with the server (a 304 costs a few bytes when
       // the browser already holds the file); the integrity value refuses any
       // file that is not this build's.
-      const request = new Request(url, { cache: "no-cache", integrity: file.integrity || "" });
+      // The page itself is fetched as "./", the address it was opened at, so the
+      // browser's copy from this visit can be revalidated instead of fetched again.
+      const from = file.path === "index.html" ? SCOPE.href : url;
+      const request = new Request(from, { cache: "no-cache", integrity: file.integrity || "" });
       const response = await fetch(request);
       if (!response.ok) throw new Error(`${file.path} answered ${response.status}`);
       if (file.path === "manifest.json") {
@@ -59,8 +62,7 @@ self.addEventListener("install", (event) => {
 self.addEventListener("activate", (event) => {
   event.waitUntil((async () => {
     for (const name of await caches.keys()) {
-      // Every other build's caches go, with their "-bytecode" companions (worker.js).
-      if (name.startsWith(PREFIX) && name !== CACHE && !name.startsWith(`${CACHE}-`)) await caches.delete(name);
+      if (name.startsWith(PREFIX) && name !== CACHE) await caches.delete(name);
     }
     await self.clients.claim();
   })());

@@ -3,7 +3,8 @@
 // they are pure-Python wheels) and answers requests through
 // calc.api.handle(json) -> json.
 // Every message in either direction is a JSON string:
-//   page -> worker  {"type": "init", "pyodide": "./pyodide/", "wheels": [...]}
+//   page -> worker  {"type": "init", "pyodide": "./pyodide/", "wheels": [...],
+//                    "bytecode": "./wheels/bytecode-cp314.zip" (optional)}
 //                   {"type": "call", "id": N, "request": "<request JSON>"}
 //   worker -> page  {"type": "progress", "percent": P, "text": "..."}
 //                   {"type": "ready", "timings_ms": {...}}
@@ -13,75 +14,6 @@
 import { loadPyodide } from "./pyodide/pyodide.mjs";
 
 let handle = null;
-let runtime = null;
-let bytecode = null; // {name, stored} once the build is known
-
-// Bytecode cache. Pyodide compiles every imported .py file on each start
-// (about 0.9 s for the engine, fluids and ht here; measured by
-// bench/browser_bench.py). The browser's Python 3.14 bytecode cannot be made by
-// the build's Python, so the worker makes it once, after the first result,
-// and keeps it in Cache Storage beside the service worker's cache of the same
-// build (deleted with it when a new build takes over). Checked-hash .pyc
-// files: valid whatever the unpacked sources' timestamps, and Python checks
-// each against its source's hash on import, so a stale one is never run.
-const PYC_URL = "./__linesmith-bytecode__.zip";
-
-async function openBytecodeCache() {
-  if (!self.caches) return null;
-  const response = await fetch(absolute("./manifest.json"));
-  if (!response.ok) return null;
-  const build = (await response.json()).build;
-  if (!/^[0-9a-f]{64}$/.test(build)) return null;
-  const name = `linesmith-${build}-bytecode`;
-  const hit = await caches.match(absolute(PYC_URL), { cacheName: name }); // creates no cache
-  return { name, stored: hit ? await hit.arrayBuffer() : null };
-}
-
-const PYC_WRITE = `
-import importlib.util, io, py_compile, site, sys, zipfile
-_sp = site.getsitepackages()[0]
-_files = sorted({m.__file__ for m in list(sys.modules.values())
-                 if (getattr(m, "__file__", None) or "").startswith(_sp) and m.__file__.endswith(".py")})
-def _compile_one(i):
-    py_compile.compile(_files[i], cfile=importlib.util.cache_from_source(_files[i]), doraise=True,
-                       invalidation_mode=py_compile.PycInvalidationMode.CHECKED_HASH)
-def _zip_all():
-    out = io.BytesIO()
-    with zipfile.ZipFile(out, "w", zipfile.ZIP_STORED) as zf:
-        for f in _files:
-            c = importlib.util.cache_from_source(f)
-            zf.write(c, c[len(_sp):].lstrip("/"))
-    return out.getvalue()
-`;
-
-async function storeBytecode() {
-  // Once, after the first reply: compile the modules in use, one per task so
-  // requests are answered in between, then keep them as one zip.
-  if (!bytecode || bytecode.stored || bytecode.busy) return;
-  bytecode.busy = true;
-  try {
-    const ns = runtime.toPy({});
-    runtime.runPython(PYC_WRITE, { globals: ns });
-    const count = ns.get("_files").length;
-    const compileOne = ns.get("_compile_one");
-    for (let i = 0; i < count; i++) {
-      compileOne(i);
-      await new Promise((resolve) => setTimeout(resolve, 0));
-    }
-    const proxy = ns.get("_zip_all")();
-    const bytes = proxy.toJs();
-    proxy.destroy();
-    const cache = await caches.open(bytecode.name);
-    await cache.put(absolute(PYC_URL), new Response(bytes, {
-      headers: { "Content-Type": "application/zip" } }));
-    bytecode.stored = true;
-    ns.destroy();
-  } catch (error) {
-    // Only a speed-up: without it the next start compiles again.
-  } finally {
-    bytecode.busy = false;
-  }
-}
 
 function send(message) {
   postMessage(JSON.stringify(message));
@@ -101,13 +33,24 @@ async function fetchWheel(url) {
   return response.arrayBuffer();
 }
 
+async function fetchText(url) {
+  const response = await fetch(url);
+  if (!response.ok) throw new Error(`${url} answered ${response.status}`);
+  return response.text();
+}
+
 async function boot(config) {
   const t0 = performance.now();
   progress(5, "Loading the Python runtime (about 13 MB on first visit)…");
   // The wheels download while the runtime boots; they are unpacked afterwards.
   const wheels = Promise.all(config.wheels.map((w) => fetchWheel(absolute(w))));
   wheels.catch(() => {}); // reported below, once the runtime is up
-  const pyc = openBytecodeCache().catch(() => null);
+  // linesmith_boot.py: lazy fluids and ht packages (only the submodules the
+  // engine uses are imported). config.bytecode: the engine's start-up modules
+  // compiled by build.py for this Python, so the browser does not compile them.
+  const bootModule = fetchText(absolute("./linesmith_boot.py"));
+  bootModule.catch(() => {});
+  const bytecode = config.bytecode ? fetchWheel(absolute(config.bytecode)).catch(() => null) : null;
   const pyodide = await loadPyodide({ indexURL: absolute(config.pyodide) });
   const tCore = performance.now();
   progress(70, "Installing the engine and its libraries…");
@@ -115,20 +58,23 @@ async function boot(config) {
   for (const buffer of await wheels) {
     pyodide.unpackArchive(buffer, "wheel", { extractDir: sitePackages });
   }
-  bytecode = await pyc;
-  if (bytecode && bytecode.stored) {
+  let bytecodeUsed = false;
+  const bytecodeZip = await bytecode;
+  if (bytecodeZip) {
     try {
-      pyodide.unpackArchive(bytecode.stored, "zip", { extractDir: sitePackages });
+      pyodide.unpackArchive(bytecodeZip, "zip", { extractDir: sitePackages });
+      bytecodeUsed = true;
     } catch (error) {
-      bytecode.stored = null; // compile as usual, store afresh
+      // Only a speed-up: Python compiles the sources as usual.
     }
   }
+  pyodide.FS.writeFile(`${sitePackages}/linesmith_boot.py`, await bootModule);
   pyodide.pyimport("importlib").invalidate_caches();
+  pyodide.pyimport("linesmith_boot").install_lazy_packages();
   const tWheels = performance.now();
   progress(85, "Starting the engine…");
   const api = pyodide.pyimport("calc.api");
   handle = api.handle;
-  runtime = pyodide;
   // For tests and the browser benchmark (Playwright's worker.evaluate): the
   // runtime, to read its memory or to make the engine fail on purpose. Only
   // code already running in this worker can reach it.
@@ -141,7 +87,7 @@ async function boot(config) {
       wheels: Math.round(tWheels - tCore),
       import: Math.round(tImport - tWheels),
       total: Math.round(tImport - t0),
-      bytecode_cached: Boolean(bytecode && bytecode.stored),
+      bytecode: bytecodeUsed,
     },
   });
 }
@@ -163,7 +109,6 @@ function call(id, request) {
     });
   }
   send({ type: "reply", id, response, handle_ms: performance.now() - t0 });
-  if (bytecode && !bytecode.stored) setTimeout(storeBytecode, 0);
 }
 
 self.onmessage = (event) => {

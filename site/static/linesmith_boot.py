@@ -1,0 +1,50 @@
+"""Start-up helper of the browser engine: site/static/worker.js imports it in Pyodide.
+
+``fluids`` and ``ht`` import every one of their submodules in their package
+``__init__`` (54 modules together); the engine uses names from 7 of them. With
+``install_lazy_packages`` the two packages start empty and each name the engine
+imports (``from fluids import Darby3K``) loads only the submodule that defines it;
+any other name loads the whole package as usual, so nothing can go missing.
+The engine then imports 20 of those modules instead of 54, which shortens the
+browser's start and the bytecode shipped for it (bench/browser_bench.py).
+
+``LAZY_NAMES`` maps package -> {name: submodule}; build.py fills it in from the
+shipped wheels themselves (running them in Pyodide). Empty means: plain imports.
+"""
+import importlib
+import importlib.util
+import sys
+
+LAZY_NAMES = {}  # filled in by build.py
+
+
+def install_lazy_packages(table=None):
+    """Put lazy stand-ins for the packages in ``table`` into ``sys.modules``; return their names."""
+    installed = []
+    for package, names in (LAZY_NAMES if table is None else table).items():
+        if package in sys.modules:
+            continue
+        spec = importlib.util.find_spec(package)
+        if spec is None or spec.submodule_search_locations is None:
+            continue
+        module = importlib.util.module_from_spec(spec)
+        module.__getattr__ = _resolver(package, module, spec, dict(names))
+        sys.modules[package] = module
+        installed.append(package)
+    return installed
+
+
+def _resolver(package, module, spec, names):
+    def __getattr__(attr):
+        submodule = names.get(attr)
+        if submodule is not None:
+            value = getattr(importlib.import_module(f"{package}.{submodule}"), attr)
+            setattr(module, attr, value)
+            return value
+        if attr.startswith("__") and attr.endswith("__"):
+            raise AttributeError(attr)
+        # Any other name: run the package's own __init__ now, into this module.
+        del module.__getattr__
+        spec.loader.exec_module(module)
+        return getattr(module, attr)
+    return __getattr__
