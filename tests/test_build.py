@@ -57,3 +57,77 @@ def test_manifest_lists_every_file_with_its_hash(tmp_path):
         # Source: sha256 values published by the package index for these files, pinned in build.py.
         assert hashlib.sha256((dist / "wheels" / name).read_bytes()).hexdigest() == sha256
     assert {p.name for p in (dist / "pyodide").iterdir()} == set(build.PYODIDE_FILES)
+
+
+def test_lock_file_keeps_its_info_and_drops_the_package_list(tmp_path):
+    import json
+    import tarfile
+
+    build.copy_pyodide(build.pyodide_tarball(), tmp_path)
+    with tarfile.open(build.pyodide_tarball(), "r:gz") as tar:
+        original = json.load(tar.extractfile("package/pyodide-lock.json"))
+    trimmed = json.loads((tmp_path / "pyodide-lock.json").read_text())
+    assert trimmed["info"] == original["info"] and trimmed["packages"] == {}
+    assert original["packages"]  # there was something to drop
+
+
+def test_lazy_packages_give_the_same_results_with_fewer_modules(tmp_path):
+    """linesmith_boot.install_lazy_packages in a fresh CPython: same engine output, fewer imports."""
+    import json
+    import subprocess
+    import sys
+
+    boot = build.SITE_DIR / "static" / "linesmith_boot.py"
+    script = tmp_path / "probe.py"
+    script.write_text(
+        "import json, sys\n"
+        f"sys.path[:0] = [{str(boot.parent)!r}, {str(build.ROOT)!r}]\n"
+        "import linesmith_boot\n"
+        "table = json.loads(sys.argv[1])\n"
+        "if table: linesmith_boot.install_lazy_packages(table)\n"
+        "import calc.api, pathlib\n"
+        "out = [calc.api.handle(json.dumps({'op': 'evaluate', 'job': json.loads(p.read_text())}))\n"
+        f"       for p in sorted(pathlib.Path({str(build.ROOT / 'calc' / 'data' / 'demos')!r}).glob('*.json'))]\n"
+        "mods = sorted(m for m in sys.modules if m.split('.')[0] in ('fluids', 'ht'))\n"
+        "print(json.dumps({'out': out, 'mods': mods}))\n", encoding="utf-8")
+
+    def run(table):
+        proc = subprocess.run([sys.executable, str(script), json.dumps(table)], capture_output=True, text=True,
+                              timeout=120)
+        assert proc.returncode == 0, proc.stderr
+        return json.loads(proc.stdout)
+
+    # The table as build.py derives it: which submodule defines each name calc imports.
+    import fluids
+    import ht
+    table = {"fluids": {}, "ht": {}}
+    for path in (build.ROOT / "calc").glob("*.py"):
+        import ast
+        for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+            if isinstance(node, ast.ImportFrom) and node.level == 0 and node.module in table:
+                package = {"fluids": fluids, "ht": ht}[node.module]
+                for alias in node.names:
+                    table[node.module][alias.name] = getattr(package, alias.name).__module__.split(".", 1)[1]
+    whole, lazy = run({}), run(table)
+    assert lazy["out"] == whole["out"]  # byte-identical JSON for every demo
+    assert len(lazy["mods"]) < len(whole["mods"]) / 2, (len(lazy["mods"]), len(whole["mods"]))
+
+
+def test_lazy_package_loads_whole_for_a_name_outside_its_table():
+    import subprocess
+    import sys
+
+    boot_dir = build.SITE_DIR / "static"
+    code = (f"import sys; sys.path.insert(0, {str(boot_dir)!r}); import linesmith_boot\n"
+            "linesmith_boot.install_lazy_packages({'fluids': {'friction_factor': 'friction'}})\n"
+            "import fluids\n"
+            "assert 'fluids.geometry' not in sys.modules\n"
+            "from fluids import friction_factor\n"
+            "assert 'fluids.geometry' not in sys.modules\n"
+            "from fluids import Reynolds  # not in the table: the real __init__ runs\n"
+            "assert 'fluids.geometry' in sys.modules\n"
+            "print(Reynolds(V=2.5, D=0.25, rho=1.1613, mu=1.9E-5))\n")
+    proc = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=60)
+    assert proc.returncode == 0, proc.stderr
+    # Source: fluids.core.Reynolds docstring example, 2.5 m/s, 0.25 m, rho 1.1613, mu 1.9e-5 -> 38200.65789473684.
+    assert abs(float(proc.stdout) - 38200.65789473684) < 1e-6
