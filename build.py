@@ -312,10 +312,13 @@ fs.writeFileSync(outZip, result.toJs());
 
 # Runs in Pyodide under Node.js: (1) from the full packages, which submodule defines each
 # name calc imports from fluids and ht; (2) in a clean import state, the engine's start-up
-# imports through linesmith_boot's lazy packages; (3) those modules' bytecode, and the
-# table, in one zip.
+# imports through linesmith_boot's lazy packages, and one evaluation of each demo job (which
+# imports what the engine loads on first use); (3) those modules' bytecode, and the table,
+# in one zip.
 _BYTECODE_PY = """
 import ast, importlib, importlib.util, io, json, pathlib, py_compile, site, sys, zipfile
+from importlib._bootstrap_external import _code_to_timestamp_pyc
+BOOT = set(sys.modules)  # a bare boot, plus what unpacking the wheels imported
 sp = site.getsitepackages()[0]
 importlib.invalidate_caches()
 wanted = {}
@@ -334,20 +337,43 @@ import linesmith_boot
 linesmith_boot.install_lazy_packages(table)
 for name in IMPORTS:
     importlib.import_module(name)
+# The engine imports some modules on first use: evaluate every demo job, as the page does at start.
+for demo in sorted(pathlib.Path(sp, "calc", "data", "demos").glob("*.json")):
+    sys.modules["calc.api"].handle(json.dumps({"op": "evaluate", "job": json.loads(demo.read_text(encoding="utf-8"))}))
 files = sorted({m.__file__ for m in list(sys.modules.values())
                 if (getattr(m, "__file__", None) or "").startswith(sp) and m.__file__.endswith(".py")
                 and not m.__file__.endswith("/linesmith_boot.py")})
+# Standard-library modules the engine adds to a bare boot: Pyodide ships them as sources in
+# its zip, so they too are compiled at every start. Sourceless .pyc files for them go to
+# linesmith-stdlib/ (put first on sys.path by linesmith_boot.prepare); only whole top-level
+# modules and packages that a bare boot has not imported.
+boot_tops = {m.split(".")[0] for m in BOOT}
+stdlib = {}
+for name, module in sorted(sys.modules.items()):
+    where = getattr(module, "__file__", None) or ""
+    if name in BOOT or name.split(".")[0] in boot_tops or ".zip" not in where or where.startswith(sp):
+        continue
+    source = module.__loader__.get_source(name)
+    if source is None:
+        continue
+    is_package = hasattr(module, "__path__")
+    rel = name.replace(".", "/") + ("/__init__.pyc" if is_package else ".pyc")
+    stdlib[rel] = _code_to_timestamp_pyc(compile(source, where, "exec", dont_inherit=True))
 out = io.BytesIO()
 with zipfile.ZipFile(out, "w") as zf:
     zi = zipfile.ZipInfo("linesmith-lazy-names.json", (1980, 1, 1, 0, 0, 0))
     zf.writestr(zi, json.dumps(table, sort_keys=True))
+    for rel, data in sorted(stdlib.items()):
+        zi = zipfile.ZipInfo("linesmith-stdlib/" + rel, (1980, 1, 1, 0, 0, 0))
+        zi.compress_type = zipfile.ZIP_DEFLATED
+        zf.writestr(zi, bytes(data), compresslevel=9)
     for f in files:
         c = importlib.util.cache_from_source(f)
         py_compile.compile(f, cfile=c, doraise=True, invalidation_mode=py_compile.PycInvalidationMode.CHECKED_HASH)
         zi = zipfile.ZipInfo(c[len(sp):].lstrip("/"), (1980, 1, 1, 0, 0, 0))
         zi.compress_type = zipfile.ZIP_DEFLATED
         with open(c, "rb") as fh:
-            zf.writestr(zi, fh.read())
+            zf.writestr(zi, fh.read(), compresslevel=9)
 out.getvalue()
 """
 BOOT_MODULE = SITE_DIR / "static" / "linesmith_boot.py"

@@ -10,10 +10,28 @@ browser's start and the bytecode shipped for it (bench/browser_bench.py).
 
 ``LAZY_NAMES`` maps package -> {name: submodule}; build.py fills it in from the
 shipped wheels themselves (running them in Pyodide). Empty means: plain imports.
+
+``prepare`` also puts ``linesmith-stdlib/`` (beside this file, unpacked from
+build.py's bytecode zip) first on ``sys.path``: compiled copies of the standard
+library modules the engine imports that a bare Pyodide boot does not, which
+Pyodide otherwise compiles from the sources in its zip at every start.
 """
 import importlib
 import importlib.util
+import os
 import sys
+
+STDLIB_BYTECODE = os.path.join(os.path.dirname(os.path.abspath(__file__)), "linesmith-stdlib")
+
+
+def prepare():
+    """Everything the worker runs before importing the engine; returns what it did."""
+    done = {"lazy": install_lazy_packages(), "stdlib_bytecode": False}
+    if os.path.isdir(STDLIB_BYTECODE) and STDLIB_BYTECODE not in sys.path:
+        sys.path.insert(0, STDLIB_BYTECODE)
+        importlib.invalidate_caches()
+        done["stdlib_bytecode"] = True
+    return done
 
 LAZY_NAMES = {}  # filled in by build.py
 

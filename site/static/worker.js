@@ -70,7 +70,7 @@ async function boot(config) {
   }
   pyodide.FS.writeFile(`${sitePackages}/linesmith_boot.py`, await bootModule);
   pyodide.pyimport("importlib").invalidate_caches();
-  pyodide.pyimport("linesmith_boot").install_lazy_packages();
+  pyodide.pyimport("linesmith_boot").prepare();
   const tWheels = performance.now();
   progress(85, "Starting the engine…");
   const api = pyodide.pyimport("calc.api");
@@ -88,6 +88,9 @@ async function boot(config) {
       import: Math.round(tImport - tWheels),
       total: Math.round(tImport - t0),
       bytecode: bytecodeUsed,
+      // Wall-clock (epoch ms) start and end of the boot, to line it up with the page's timeline.
+      epoch_start: Math.round(performance.timeOrigin + t0),
+      epoch_ready: Math.round(performance.timeOrigin + tImport),
     },
   });
 }
