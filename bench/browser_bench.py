@@ -106,7 +106,8 @@ for p in sp.rglob("__pycache__/*.pyc"):
     p.unlink()
 out["lazy_from_source"] = reimport(True)
 out["whole_from_source"] = reimport(False)
-files = [pathlib.Path(sys.modules[m].__file__) for m in list(sys.modules) if ours(m)]
+files = [pathlib.Path(sys.modules[m].__file__) for m in list(sys.modules)
+         if ours(m) and sys.modules[m].__file__.endswith(".py")]
 t = time.perf_counter()
 for f in files:
     py_compile.compile(str(f), cfile=importlib.util.cache_from_source(str(f)), doraise=True,
@@ -286,6 +287,12 @@ def main() -> int:
             r["cold_ms"] = wait_ready(page)
             r["first_visit_bytes_to_ready"] = server.sent_bytes
             r["worker_timings_ms"] = json.loads(page.get_attribute("body", "data-worker-timings") or "{}")
+            # Where the time outside the worker's boot goes: before the page starts the
+            # worker, and after the engine is ready (first evaluation, rendering).
+            origin = page.evaluate("performance.timeOrigin")
+            if "epoch_start" in r["worker_timings_ms"]:
+                r["worker_started_after_navigation_ms"] = r["worker_timings_ms"]["epoch_start"] - origin
+                r["first_result_after_worker_ready_ms"] = r["cold_ms"] - (r["worker_timings_ms"]["epoch_ready"] - origin)
             time.sleep(0.5)
             cdp = ctx.new_cdp_session(page)
             metrics = {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]} \
@@ -362,10 +369,16 @@ def main() -> int:
         "cold_over_bare_per_run": [r["cold_ms"] / r["bare_boot_ms"] for r in runs],
         "warm_start_to_first_result_ms": med("warm_ms"),
         "worker_timings_ms_median": {k: statistics.median(r["worker_timings_ms"][k] for r in runs)
-                                     for k in runs[0]["worker_timings_ms"] if k != "bytecode"},
+                                     for k in runs[0]["worker_timings_ms"] if k not in ("bytecode", "epoch_start", "epoch_ready")},
         "warm_worker_timings_ms_median": {k: statistics.median(r["warm_worker_timings_ms"][k] for r in runs)
-                                          for k in runs[0]["warm_worker_timings_ms"] if k != "bytecode"},
+                                          for k in runs[0]["warm_worker_timings_ms"] if k not in ("bytecode", "epoch_start", "epoch_ready")},
         "bytecode_shipped": all(r["worker_timings_ms"].get("bytecode") for r in runs),
+        "cold_start_parts_ms_median": {
+            "worker_started_after_navigation": med("worker_started_after_navigation_ms"),
+            "worker_boot_total": statistics.median(r["worker_timings_ms"]["total"] for r in runs),
+            "first_result_after_worker_ready": med("first_result_after_worker_ready_ms"),
+            "bare_page_worker_boot": med("bare_worker_ms"),
+        },
         "recalculation": recalc,
         "first_visit_bytes_to_first_result": med("first_visit_bytes_to_ready"),
         "first_visit_bytes_including_precache": med("first_visit_bytes_with_precache"),
