@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import hashlib
+import re
 import zipfile
 
 import pytest
@@ -131,3 +132,26 @@ def test_lazy_package_loads_whole_for_a_name_outside_its_table():
     assert proc.returncode == 0, proc.stderr
     # Source: fluids.core.Reynolds docstring example, 2.5 m/s, 0.25 m, rho 1.1613, mu 1.9e-5 -> 38200.65789473684.
     assert abs(float(proc.stdout) - 38200.65789473684) < 1e-6
+
+
+def test_build_ships_bytecode_for_the_browser_when_node_is_there(tmp_path):
+    import json
+    import shutil
+
+    if shutil.which("node") is None:
+        pytest.fail("Node.js is needed for the build (it fetches Pyodide and compiles the engine's bytecode)")
+    build.build(tmp_path / "site")
+    site = tmp_path / "site"
+    with zipfile.ZipFile(site / "wheels" / build.BYTECODE_FILE) as zf:
+        names = zf.namelist()
+        table = json.loads(zf.read("linesmith-lazy-names.json"))
+    # The engine's modules on the page's path have Python 3.14 bytecode (the browser's CPython;
+    # 3.11's would be useless); the command line's (cli, report) need none.
+    calc_modules = {"__init__", "api", "engine", "hydraulics", "model", "schema", "ratings", "thermal"}
+    shipped = {n.split("/")[-1].split(".")[0] for n in names if n.startswith("calc/__pycache__/")}
+    assert calc_modules <= shipped, sorted(calc_modules - shipped)
+    assert all(n.endswith(".cpython-314.pyc") for n in names if n.startswith(("calc/", "fluids/", "ht/")))
+    assert table["fluids"]["friction_factor"] == "friction"  # Source: fluids 1.3.1 defines it in fluids/friction.py
+    config = json.loads(re.search(r'id="linesmith-config">(.*?)</script>', (site / "index.html").read_text()).group(1))
+    assert config["bytecode"] == f"./wheels/{build.BYTECODE_FILE}"
+    assert "LAZY_NAMES = {}" not in (site / "linesmith_boot.py").read_text()
