@@ -56,7 +56,6 @@ swivel nuts; all others are male (stud, tube nut, banjo bolt, pipe thread);
 """
 from __future__ import annotations
 
-import argparse
 import json
 import math
 import re
@@ -801,9 +800,15 @@ def adapter_parts(plan: dict) -> list[dict]:
 
 
 # -- command line -------------------------------------------------------------
-class _Parser(argparse.ArgumentParser):
-    def error(self, message):  # one line, no usage dump
-        raise _Bad(message)
+def _parser_class():
+    # argparse is imported here, not at module level: the browser engine never parses a
+    # command line, and leaving it out keeps it out of the shipped start-up bytecode.
+    import argparse
+
+    class _Parser(argparse.ArgumentParser):
+        def error(self, message):  # one line, no usage dump
+            raise _Bad(message)
+    return _Parser
 
 
 def main_thread(argv: list[str]) -> int:
@@ -821,7 +826,7 @@ def main_thread(argv: list[str]) -> int:
     [...
     True
     """
-    p = _Parser(prog="python -m calc thread", description="Identify a thread from a caliper and a pitch gauge.")
+    p = _parser_class()(prog="python -m calc thread", description="Identify a thread from a caliper and a pitch gauge.")
     p.add_argument("major", metavar="MAJOR", help="caliper reading, e.g. 15.9mm or 0.625in")
     p.add_argument("pitch", metavar="PITCH", help="pitch, e.g. 18tpi or 1.5mm")
     g = p.add_mutually_exclusive_group()
