@@ -335,8 +335,7 @@ def port_checks(plans: list[dict], job: dict) -> list[list[dict]]:
             if not plan["ok"]:
                 checks.append(_check("ports", "fail", f"{label}: {plan['message']}"))
             elif plan["adapters"]:
-                names = "; ".join(a["name"] for a in plan["adapters"])
-                checks.append(_check("ports", "ok", f"{label}: fit {names}. {plan['message']}".strip()))
+                checks.append(_check("ports", "ok", f"{label}: {plan['message']}".strip()))
             else:
                 checks.append(_check("ports", "ok", f"{label}: the line end fits the port directly. "
                                                     f"{plan['message']}".strip()))
