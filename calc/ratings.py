@@ -430,6 +430,8 @@ def part_ratings(parts: list[dict], rset: dict, t_max_c: float, t_min_c: float) 
             r["description"] = (f"fitting {fam['name']} {'size ' if fam and 'mm' in fam['size_basis'] else '-'}"
                                 f"{p['dash']}" if fam and p.get("dash") is not None else
                                 f"fitting {fam['name']}" if fam else f"fitting {p['bore_mm']:g} mm bore, no family")
+            if p.get("adapter"):
+                r["description"] = f"adapter at {p['adapter']}"
             w, src = p.get("working_bar"), "user" if p.get("working_bar") is not None else None
             if w is None and fam is not None and fam.get("rated_with_hose"):
                 hoses = [q.get("working_bar") for q in parts if q["kind"] == "hose" and q.get("working_bar")]
