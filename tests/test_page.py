@@ -454,3 +454,11 @@ def test_demo_picker_loads_every_demo(page, site):
             badge = page.locator(f'#line-results [data-line-card="{li}"] .line-title .badge')
             assert badge.get_attribute("data-verdict") == _worst(line["checks"]), (demo["file"], li)
     page.click("#file-message .dismiss")
+
+
+def test_every_page_module_is_preloaded(page):
+    """index.html preloads each module of js/, so the worker starts before the module graph is walked."""
+    shipped = sorted(p.name for p in (Path(__file__).resolve().parent.parent / "site" / "static" / "js").glob("*.js"))
+    preloaded = page.evaluate("""() => [...document.querySelectorAll('link[rel="modulepreload"]')]
+        .map((l) => new URL(l.href).pathname.split('/').pop()).sort()""")
+    assert preloaded == shipped

@@ -261,28 +261,19 @@ async function identifyThread() {
 
 // ---------------------------------------------------------------- start
 
-function startEngine() {
-  const config = readJSON("linesmith-config");
-  let saved = null;
-  try { saved = localStorage.getItem(UNITS_KEY); } catch { /* private mode */ }
-  if (saved === "us") { setSystem("us"); body.dataset.units = "us"; }
-  for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
-
-  const restored = restore();
-  state.job = restored || clone(demos.length ? demos[0].job : readJSON("linesmith-demo"));
-  state.restored = Boolean(restored);
-  assignStaticPaths();
-  initForm(model, state, changed);
-  fillAll();
-  toolbar();
-
+// The worker is created first, before the form is built: Pyodide boots in its own
+// thread while this one renders the form. Its messages are handled only after the
+// synchronous start-up below has finished, so state.job and the form exist by then.
+function startWorker(config) {
   try {
     worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
   } catch (error) {
+    worker = null;
     fail(`This browser cannot start the engine worker (${error.message}).`);
     return;
   }
   state.started = performance.now();
+  performance.mark("linesmith-worker-created"); // for the benchmark's timeline
 
   worker.onerror = (event) => {
     event.preventDefault();
@@ -291,6 +282,8 @@ function startEngine() {
 
   worker.onmessage = (event) => {
     const message = JSON.parse(event.data);
+    // The worker now starts before the form: if the page failed meanwhile, its message stays.
+    if (body.dataset.engine === "failed" && message.type !== "reply") return;
     if (message.type === "progress") {
       setStatus(message.text, message.percent);
     } else if (message.type === "failed") {
@@ -309,6 +302,24 @@ function startEngine() {
   };
 
   worker.postMessage(JSON.stringify({ type: "init", ...config }));
+}
+
+function startEngine() {
+  startWorker(readJSON("linesmith-config"));
+
+  let saved = null;
+  try { saved = localStorage.getItem(UNITS_KEY); } catch { /* private mode */ }
+  if (saved === "us") { setSystem("us"); body.dataset.units = "us"; }
+  for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
+
+  const restored = restore();
+  state.job = restored || clone(demos.length ? demos[0].job : readJSON("linesmith-demo"));
+  state.restored = Boolean(restored);
+  assignStaticPaths();
+  initForm(model, state, changed);
+  fillAll();
+  toolbar();
+  performance.mark("linesmith-form-built");
 }
 
 // For tests and for a look in the console: the job as JSON text, exactly as kept.
