@@ -22,7 +22,8 @@ from pathlib import Path
 
 import pytest
 
-from .browser_support import LAUNCH_ARGS, find_chromium, load_build_module, parse_shown_number, serve_directory
+from .browser_support import (
+    FAULT_ONCE_JS, LAUNCH_ARGS, find_chromium, load_build_module, parse_shown_number, serve_directory)
 
 BOOT_TIMEOUT_MS = 120_000
 # An invented circuit: a pressure line of fitting, hose and elbow; a return; a feed.
@@ -454,6 +455,51 @@ def test_demo_picker_loads_every_demo(page, site):
             badge = page.locator(f'#line-results [data-line-card="{li}"] .line-title .badge')
             assert badge.get_attribute("data-verdict") == _worst(line["checks"]), (demo["file"], li)
     page.click("#file-message .dismiss")
+
+
+def _app_worker(pg):
+    """The page's own engine worker (Playwright's Worker object)."""
+    for worker in pg.workers:
+        if worker.url.split("?")[0].endswith("/worker.js"):
+            return worker
+    raise AssertionError(f"the page's worker.js is not among {[w.url for w in pg.workers]}")
+
+
+def test_page_recovers_after_an_engine_failure(page, site):
+    """A Python-level failure inside the page's own worker: shown in words, and the next edit computes."""
+    import calc
+
+    _reset(page)
+    # no plot sweep may be pending: the fault must hit the evaluation of the edit below
+    page.wait_for_function("() => document.body.dataset.sweepRev === document.body.dataset.resultRev", timeout=30_000)
+    shown_before = _line_cell(page, 0, 0, "pressure_drop_bar")
+    _app_worker(page).evaluate(FAULT_ONCE_JS)  # the next calc.api.dispatch raises a BaseException, once
+
+    page.fill('[data-path="pump.relief_bar"]', "90")
+    _settle(page)
+    assert page.get_attribute("body", "data-engine") == "ready"  # not frozen, not "failed"
+    problems = page.locator("#problems")
+    assert problems.is_visible()
+    text = problems.text_content()
+    assert "simulated engine fault" in text and "engine" in text.lower() and "Traceback" not in text, text
+    assert "next edit" in text, text  # says what to do
+    assert "engine failed" in page.text_content("#results-state")
+    # the results stay at the last job that computed
+    assert _line_cell(page, 0, 0, "pressure_drop_bar") == shown_before
+    # an engine fault is not a field's fault: no field is marked with it
+    assert page.locator("#job-form .fld-error:not([hidden]), #job-form .box-error:not([hidden])").count() == 0
+
+    page.fill('[data-path="pump.relief_bar"]', "95")
+    _settle(page)
+    assert problems.is_hidden()
+    assert page.text_content("#results-state").startswith("(computed in")
+    job = _job(page)
+    assert job["pump"]["relief_bar"] == 95.0
+    # Source: calc.evaluate() in CPython on the same job is the reference.
+    expected = calc.evaluate(job)
+    assert _check_lines_table(page, expected) >= 9
+    rating = page.locator('#line-results [data-line-card="0"] .rating [data-field="required_bar"]')
+    _close(rating.text_content(), expected["lines"][0]["rating"]["required_bar"], "required_bar after recovery")
 
 
 def test_every_page_module_is_preloaded(page):

@@ -24,7 +24,8 @@ const state = {
   rev: 0,            // bumped on every edit of the job
   result: null,      // last result that computed
   resultRev: -1,
-  errors: [],
+  errors: [],        // the engine's problems with the job (by field path)
+  fault: null,       // the engine's own failure on the last evaluation, in words
   sweep: null,       // {rev, result | error, rpm}
 };
 
@@ -87,6 +88,13 @@ function schedule(delay = DEBOUNCE_MS) {
   timer = setTimeout(recalc, delay);
 }
 
+// calc.api.handle answers a failure of the engine itself (not of the job) with one
+// error of empty path and "internal error: ..."; the worker does the same for an
+// exception that crosses the Python bridge. The next request is handled as usual.
+function isEngineFault(error) {
+  return !error.path && /^internal error\b/.test(error.message || "");
+}
+
 async function recalc() {
   if (body.dataset.engine === "failed" || !worker || body.dataset.engine === "loading" && !state.ready) return;
   if (inflight) { again = true; return; }
@@ -108,15 +116,20 @@ async function recalc() {
     state.result = reply.result;
     state.resultJob = job;
     state.errors = [];
+    state.fault = null;
   } else {
-    state.errors = reply.errors || [];
+    const errors = reply.errors || [];
+    const faults = errors.filter(isEngineFault);
+    state.fault = faults.length ? faults.map((e) => e.message).join("; ") : null;
+    state.errors = errors.filter((e) => !isEngineFault(e));
   }
   state.resultRev = rev;
   show();
   body.dataset.resultRev = String(rev);
   body.dataset.busy = "false";
   document.getElementById("results-state").textContent = reply.ok
-    ? `(computed in ${Math.round(ms)} ms)` : "(not updated: fix the problems listed)";
+    ? `(computed in ${Math.round(ms)} ms)`
+    : state.fault ? "(not updated: the engine failed; edit the job to try again)" : "(not updated: fix the problems listed)";
   if (body.dataset.engine !== "ready" && state.result) {
     const seconds = ((performance.now() - state.started) / 1000).toFixed(1);
     setStatus(`Engine ready (first result in ${seconds} s).`, 100);
@@ -124,7 +137,8 @@ async function recalc() {
     body.dataset.bootMs = String(Math.round(performance.now() - state.started));
     body.dataset.engine = "ready";
   } else if (body.dataset.engine !== "ready" && !reply.ok) {
-    setStatus("The job has problems; fix the fields marked in the form.", 100);
+    setStatus(state.fault ? "The engine failed on the first job; edit the job to try again."
+      : "The job has problems; fix the fields marked in the form.", 100);
     body.dataset.engine = "ready";
   }
   if (reply.ok) {
@@ -149,7 +163,7 @@ async function runSweep(rev) {
 
 function show() {
   showErrors(state.errors);
-  renderProblems(state.errors, localErrors());
+  renderProblems(state.errors, localErrors(), state.fault);
   if (state.result) {
     renderResult(state.result, state.resultJob);
     const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
@@ -165,7 +179,7 @@ function changed({ structural, recalc: needsCalc }) {
     autosave(state.job);
     schedule();
   } else {
-    renderProblems(state.errors, localErrors());
+    renderProblems(state.errors, localErrors(), state.fault);
   }
   body.dataset.jobRev = String(state.rev);
   if (structural) body.dataset.structure = String(Number(body.dataset.structure || 0) + 1);

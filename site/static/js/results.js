@@ -265,11 +265,17 @@ export function renderResult(result, job) {
   warningsBlock(result);
 }
 
-export function renderProblems(errors, localErrors) {
+// fault: the engine's own failure on the last evaluation (a sentence), or null.
+export function renderProblems(errors, localErrors, fault = null) {
   const box = document.getElementById("problems");
   box.replaceChildren();
   const all = [...(localErrors || []), ...(errors || [])];
-  box.hidden = all.length === 0;
+  box.hidden = all.length === 0 && !fault;
+  if (fault) {
+    box.append(el("p", { class: "problems-title engine-fault" },
+      `The engine failed on this job (${fault}). The results below are for the last job that computed; `
+      + "your next edit asks the engine again. If it keeps failing, save the job file and reload the page."));
+  }
   if (!all.length) return;
   box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; the results below are for the last job that computed:`));
   const ul = el("ul");
