@@ -337,6 +337,18 @@ def test_job_file_and_autosave_survive_a_reload(page, site, tmp_path):
     assert _job(page) == saved
     _check_lines_table(page, calc.evaluate(saved))
 
+    # the same file as some editors write it: UTF-8 with a byte-order mark, CRLF line ends
+    _reset(page)
+    bom_bytes = b"\xef\xbb\xbf" + saved_path.read_bytes().replace(b"\n", b"\r\n")
+    assert bom_bytes.decode("utf-8-sig").replace("\r\n", "\n") == saved_path.read_text(encoding="utf-8")
+    page.set_input_files("#job-open", files=[{"name": "job-bom.json", "mimeType": "application/json",
+                                             "buffer": bom_bytes}])
+    page.wait_for_selector("#file-message.ok:has-text('Opened job-bom.json')", timeout=30_000)
+    _settle(page)
+    assert _job(page) == saved
+    _check_lines_table(page, calc.evaluate(saved))
+    page.click("#file-message .dismiss")
+
 
 BAD_FILES = [
     ("broken.json", b'{"version": 1, "name": ', "not valid JSON"),

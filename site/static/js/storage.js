@@ -35,6 +35,8 @@ export async function readJobFile(file, version) {
   }
   let text;
   try { text = await file.text(); } catch (e) { return { error: `${file.name} could not be read (${e.message}).` }; }
+  // A UTF-8 byte-order mark (written by some editors) is not JSON: drop it first.
+  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
   let job;
   try { job = JSON.parse(text); } catch (e) { return { error: `${file.name} is not valid JSON: ${e.message}.` }; }
   if (!job || typeof job !== "object" || Array.isArray(job)) {
