@@ -514,6 +514,37 @@ def test_page_recovers_after_an_engine_failure(page, site):
     _close(rating.text_content(), expected["lines"][0]["rating"]["required_bar"], "required_bar after recovery")
 
 
+def test_update_notice_offers_the_new_build(page):
+    """offline.js marks data-offline="update-waiting"; the page says so and its button calls applyUpdate().
+
+    The state is set from the test (a real update needs a rebuild and a second visit, too slow here);
+    offline.js's own transitions to that state are tested in tests/test_offline.py.
+    """
+    page.wait_for_function("() => ['ready', 'failed', 'unsupported'].includes(document.body.dataset.offline)",
+                           timeout=60_000)  # offline.js has settled: it will not overwrite the state below
+    settled = page.get_attribute("body", "data-offline")
+    notice = page.locator("#update-notice")
+    assert notice.is_hidden()
+    try:
+        page.evaluate("""() => {
+            window.__applied = 0;
+            window.__realApplyUpdate = window.linesmithOffline.applyUpdate;
+            window.linesmithOffline.applyUpdate = () => { window.__applied += 1; return true; };
+            document.body.dataset.offline = "update-waiting";
+        }""")
+        page.wait_for_selector("#update-notice", state="visible", timeout=5_000)
+        assert notice.locator("p").text_content() == "A new version of Linesmith is ready. Reload to use it."
+        page.click("#update-apply")
+        assert page.evaluate("() => window.__applied") == 1
+        page.evaluate("() => { document.body.dataset.offline = 'ready'; }")
+        page.wait_for_selector("#update-notice", state="hidden", timeout=5_000)
+    finally:
+        page.evaluate("""(s) => {
+            if (window.__realApplyUpdate) window.linesmithOffline.applyUpdate = window.__realApplyUpdate;
+            document.body.dataset.offline = s;
+        }""", settled)
+
+
 def test_every_page_module_is_preloaded(page):
     """index.html preloads each module of js/, so the worker starts before the module graph is walked."""
     shipped = sorted(p.name for p in (Path(__file__).resolve().parent.parent / "site" / "static" / "js").glob("*.js"))

@@ -273,6 +273,22 @@ async function identifyThread() {
   if (res.tolerance) out.append(el("p", { class: "small" }, `Tolerance: ${res.tolerance.source || ""}`));
 }
 
+// ---------------------------------------------------------------- update notice
+
+// offline.js marks body[data-offline="update-waiting"] once a newer build is stored;
+// the notice offers to switch to it now (window.linesmithOffline.applyUpdate()).
+function watchUpdates() {
+  const notice = document.getElementById("update-notice");
+  const sync = () => { notice.hidden = body.dataset.offline !== "update-waiting"; };
+  document.getElementById("update-apply").addEventListener("click", () => {
+    const offline = window.linesmithOffline;
+    // applyUpdate reloads once the new build has taken over; with none waiting, a plain reload.
+    if (!offline || !offline.applyUpdate()) location.reload();
+  });
+  new MutationObserver(sync).observe(body, { attributes: true, attributeFilter: ["data-offline"] });
+  sync();
+}
+
 // ---------------------------------------------------------------- start
 
 // The worker is created first, before the form is built: Pyodide boots in its own
@@ -333,6 +349,7 @@ function startEngine() {
   initForm(model, state, changed);
   fillAll();
   toolbar();
+  watchUpdates();
   performance.mark("linesmith-form-built");
 }
 
