@@ -124,7 +124,7 @@ def localize_text(text: str, system: str = "metric") -> str:
             out = _fmt(to_display(v, kind, "us"), kind)
             return ("+" + out) if n.group(0).startswith("+") and not out.startswith("-") else out
         # a range joined by "-" has its second figure unsigned ("2-6"): keep the joiner
-        converted = re.sub(rf"(?<=\d)-(?=\d)", " - ", num_part)
+        converted = re.sub(r"(?<=\d)-(?=\d)", " - ", num_part)
         converted = _ONE.sub(conv, converted).replace(" - ", "-")
         return f"{converted} {us_word}"
     return _FIGURE.sub(one, text)

@@ -66,6 +66,27 @@ def find_chromium(playwright) -> tuple[str | None, str]:
 
 
 @contextmanager
+def launched_chromium():
+    """Start Playwright and launch the Chromium ``find_chromium`` picks: yields ``(browser, description)``.
+
+    With no Chromium the calling test fails with ``HOW_TO_INSTALL`` (never skips).
+    """
+    import pytest
+    from playwright.sync_api import sync_playwright
+
+    with sync_playwright() as playwright:
+        try:
+            executable, description = find_chromium(playwright)
+        except RuntimeError as exc:
+            pytest.fail(str(exc), pytrace=False)
+        browser = playwright.chromium.launch(executable_path=executable, args=LAUNCH_ARGS, headless=True)
+        try:
+            yield browser, description
+        finally:
+            browser.close()
+
+
+@contextmanager
 def serve_directory(directory: Path):
     """Serve directory on a free loopback port in a thread; yield the base URL."""
     build = load_build_module()

@@ -17,11 +17,10 @@ import pytest
 
 from .browser_support import (
     FAULT_ONCE_JS,
-    LAUNCH_ARGS,
     PROBE_JS,
     compare_json,
     engine_config,
-    find_chromium,
+    launched_chromium,
     load_build_module,
     parse_shown_number,
     probe_worker,
@@ -48,19 +47,9 @@ def built_site():
 
 @pytest.fixture(scope="module")
 def browser():
-    from playwright.sync_api import sync_playwright
-
-    with sync_playwright() as playwright:
-        try:
-            executable, description = find_chromium(playwright)
-        except RuntimeError as exc:
-            pytest.fail(str(exc), pytrace=False)
+    with launched_chromium() as (browser, description):
         print(f"\nbrowser: {description}")
-        browser = playwright.chromium.launch(executable_path=executable, args=LAUNCH_ARGS, headless=True)
-        try:
-            yield browser
-        finally:
-            browser.close()
+        yield browser
 
 
 def _open(browser, url):

@@ -22,7 +22,7 @@ from urllib.parse import urlsplit
 
 import pytest
 
-from .browser_support import LAUNCH_ARGS, find_chromium, load_build_module, serve_directory
+from .browser_support import launched_chromium, load_build_module, serve_directory
 
 build = load_build_module()
 BOOT_TIMEOUT_MS = 120_000
@@ -110,18 +110,8 @@ def test_web_app_manifest_makes_the_page_installable(tmp_path):
 
 @pytest.fixture(scope="module")
 def browser():
-    from playwright.sync_api import sync_playwright
-
-    with sync_playwright() as playwright:
-        try:
-            executable, description = find_chromium(playwright)
-        except RuntimeError as exc:
-            pytest.fail(str(exc), pytrace=False)
-        browser = playwright.chromium.launch(executable_path=executable, args=LAUNCH_ARGS, headless=True)
-        try:
-            yield browser
-        finally:
-            browser.close()
+    with launched_chromium() as (browser, _):
+        yield browser
 
 
 def _watch(context):

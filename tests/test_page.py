@@ -23,7 +23,7 @@ from pathlib import Path
 import pytest
 
 from .browser_support import (
-    FAULT_ONCE_JS, LAUNCH_ARGS, find_chromium, load_build_module, parse_shown_number, serve_directory)
+    FAULT_ONCE_JS, launched_chromium, load_build_module, parse_shown_number, serve_directory)
 
 BOOT_TIMEOUT_MS = 120_000
 # An invented circuit: a pressure line of fitting, hose and elbow; a return; a feed.
@@ -65,14 +65,7 @@ def site(tmp_path_factory):
 
 @pytest.fixture(scope="module")
 def page(site):
-    from playwright.sync_api import sync_playwright
-
-    with sync_playwright() as playwright:
-        try:
-            executable, _ = find_chromium(playwright)
-        except RuntimeError as exc:
-            pytest.fail(str(exc), pytrace=False)
-        browser = playwright.chromium.launch(executable_path=executable, args=LAUNCH_ARGS, headless=True)
+    with launched_chromium() as (browser, _):
         context = browser.new_context(viewport={"width": 1366, "height": 768}, accept_downloads=True)
         pg = context.new_page()
         console: list[str] = []
@@ -83,11 +76,8 @@ def page(site):
         print(f"\nfirst result after {time.perf_counter() - started:.2f} s "
               f"(page's own figure {pg.get_attribute('body', 'data-boot-ms')} ms)")
         pg.console_errors = console
-        try:
-            yield pg
-        finally:
-            assert not console, console
-            browser.close()
+        yield pg
+        assert not console, console
 
 
 # ------------------------------------------------------------------ helpers

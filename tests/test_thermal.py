@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given, settings, strategies as st
 
 from calc import evaluate, thermal
-from calc.engine import Circuit, build
+from calc.engine import build
 from calc.fluid import state as fluid_state
 from calc.model import validate_job
 
