@@ -327,8 +327,11 @@ JOB = Record("job", "Job", (
 
 def describe_job() -> dict:
     """The job model as JSON: every field with label, unit kind, default, limits and help."""
+    from .fluid import PRESETS
     return {"version": JOB_VERSION, "job": JOB.describe(), "default_conditions": DEFAULT_CONDITIONS,
-            "fluid_presets": list(FLUID_PRESETS)}
+            "fluid_presets": list(FLUID_PRESETS),
+            "fluid_preset_values": {k: {f: v for f, v in PRESETS[k].items() if f not in ("name", "source")}
+                                    for k in FLUID_PRESETS}}
 
 
 def validate_job(job) -> tuple[dict | None, list[Problem], list[Problem]]:

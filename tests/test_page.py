@@ -541,3 +541,15 @@ def test_every_page_module_is_preloaded(page):
     preloaded = page.evaluate("""() => [...document.querySelectorAll('link[rel="modulepreload"]')]
         .map((l) => new URL(l.href).pathname.split('/').pop()).sort()""")
     assert preloaded == shipped
+
+
+def test_fluid_fields_show_the_preset_values(page):
+    # Source: calc.fluid.PRESETS (generic values, from memory): an empty fluid field shows the chosen
+    # preset's value as its placeholder, in the display units, and keeps the job unchanged.
+    from calc.fluid import PRESETS
+    job_before = page.evaluate("window.linesmith.jobJSON()")
+    preset = json.loads(job_before)["fluid"].get("preset")
+    assert preset in PRESETS, "the page's current job should name a fluid preset"
+    ph = page.get_attribute('[data-path="fluid.visc_40c_cst"]', "placeholder")
+    assert ph.startswith(f"{PRESETS[preset]['visc_40c_cst']:g}") and "preset" in ph
+    assert page.evaluate("window.linesmith.jobJSON()") == job_before

@@ -106,12 +106,22 @@ function fillInput(input) {
       ? value.map((p) => p.map((c) => inputText(c, unit)).join(", ")).join("\n") : "";
   } else if (kind === "number" || kind === "integer") {
     input.value = typeof value === "number" ? inputText(value, unit) : "";
-    input.placeholder = def !== undefined && def !== "" ? inputText(Number(def), unit) : "";
+    const preset = presetValue(path);
+    input.placeholder = preset !== undefined ? `${inputText(preset, unit)} (preset)`
+      : def !== undefined && def !== "" ? inputText(Number(def), unit) : "";
   } else {
     input.value = typeof value === "string" ? value : "";
     input.placeholder = def ?? "";
   }
   updateDash(input);
+}
+
+function presetValue(path) {
+  // a fluid field left empty takes the chosen preset's value: show it as the placeholder
+  const m = /^fluid\.(\w+)$/.exec(path);
+  const preset = state.job && state.job.fluid && state.job.fluid.preset;
+  const values = m && preset && model.fluid_preset_values && model.fluid_preset_values[preset];
+  return values && typeof values[m[1]] === "number" ? values[m[1]] : undefined;
 }
 
 function updateDash(input) {
@@ -245,6 +255,9 @@ function onInput(event) {
       titleFor(holder.dataset.item, getPath(state.job, li.dataset.path) || {}, Number(li.dataset.index));
   }
   if (path === "name") document.getElementById("job-name").textContent = state.job.name || "(unnamed)";
+  if (path === "fluid.preset") { // the other fluid fields show the new preset's values as placeholders
+    for (const other of formEl().querySelectorAll('[data-path^="fluid."]')) if (other !== input) fillInput(other);
+  }
   onChange({ localErrors: localErrors(), structural: false, recalc: true });
 }
 
