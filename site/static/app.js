@@ -291,28 +291,23 @@ function watchUpdates() {
 
 // ---------------------------------------------------------------- start
 
-// The worker is created first, before the form is built: Pyodide boots in its own
-// thread while this one renders the form. Its messages are handled only after the
-// synchronous start-up below has finished, so state.job and the form exist by then.
-function startWorker(config) {
-  try {
-    worker = new Worker(new URL("./worker.js", import.meta.url), { type: "module" });
-  } catch (error) {
-    worker = null;
-    fail(`This browser cannot start the engine worker (${error.message}).`);
+// The worker is created by start.js, a classic script in <head> that runs before the page body
+// is parsed: Pyodide boots in its own thread while the page arrives and this module renders the
+// form. Here the page adopts it; the messages it sent meanwhile are handled after the synchronous
+// start-up below has finished (so state.job and the form exist by then), in order, then live ones.
+function startWorker() {
+  const early = self.linesmithEarly || { worker: null, messages: [], error: "the start script did not run" };
+  worker = early.worker;
+  if (!worker) {
+    fail(`This browser cannot start the engine worker (${early.error}).`);
     return;
   }
-  state.started = performance.now();
-  performance.mark("linesmith-worker-created"); // for the benchmark's timeline
+  state.started = early.started;
 
-  worker.onerror = (event) => {
-    event.preventDefault();
-    fail(`The engine worker stopped: ${event.message || "it could not be loaded"}.`);
-  };
-
-  worker.onmessage = (event) => {
+  const onError = (message) => fail(`The engine worker stopped: ${message}.`);
+  const onMessage = (event) => {
     const message = JSON.parse(event.data);
-    // The worker now starts before the form: if the page failed meanwhile, its message stays.
+    // The worker starts before the form: if the page failed meanwhile, its message stays.
     if (body.dataset.engine === "failed" && message.type !== "reply") return;
     if (message.type === "progress") {
       setStatus(message.text, message.percent);
@@ -330,12 +325,16 @@ function startWorker(config) {
       schedule(0);
     }
   };
-
-  worker.postMessage(JSON.stringify({ type: "init", ...config }));
+  setTimeout(() => { // after the start-up below: take over, then replay what arrived meanwhile
+    worker.onmessage = onMessage;
+    worker.onerror = (event) => { event.preventDefault(); onError(event.message || "it could not be loaded"); };
+    for (const event of early.messages.splice(0)) onMessage(event);
+    if (early.error) onError(early.error);
+  }, 0);
 }
 
 function startEngine() {
-  startWorker(readJSON("linesmith-config"));
+  startWorker();
 
   let saved = null;
   try { saved = localStorage.getItem(UNITS_KEY); } catch { /* private mode */ }
