@@ -439,6 +439,19 @@ def test_thread_panel_ranks_like_the_engine(page):
     # Source: ASME B1.1 (from memory) gives 5/8-18 UNF a 15.875 mm major diameter; the engine ranks it first.
     assert rows.first.locator("td").first.text_content() == expected[0]["thread"] == "5/8-18 UNF"
     _close(rows.first.locator("td").nth(2).text_content(), expected[0]["fit_error_mm"], "fit error")
+    # the identified thread goes into a port of the job, and nothing else in the job changes
+    before = _job(page)
+    page.select_option("#thr-use-thread", "0")
+    page.select_option("#thr-use-port", "0:from_port")
+    page.click("#thr-use-go")
+    _settle(page)
+    after = _job(page)
+    assert after["lines"][0]["from_port"]["thread"] == "5/8-18 UNF"
+    assert page.input_value('[data-path="lines[0].from_port.thread"]') == "5/8-18 UNF"
+    after["lines"][0]["from_port"].pop("thread")
+    if not after["lines"][0]["from_port"]:
+        after["lines"][0].pop("from_port")
+    assert after == before
 
 
 def test_demo_picker_loads_every_demo(page, site):

@@ -271,6 +271,35 @@ async function identifyThread() {
   table.append(tb);
   out.append(table);
   if (res.tolerance) out.append(el("p", { class: "small" }, `Tolerance: ${res.tolerance.source || ""}`));
+  out.append(portPicker(res.candidates || []));
+}
+
+// Put an identified thread into a line's start or end port (the user then picks the seal and line end).
+function portPicker(candidates) {
+  const box = el("div", { class: "thr-use" });
+  const lines = state.job.lines || [];
+  if (!candidates.length || !lines.length) return box;
+  const threadSel = el("select", { id: "thr-use-thread", "aria-label": "Thread to use" },
+    ...candidates.map((c, i) => el("option", { value: String(i) }, c.thread)));
+  const portSel = el("select", { id: "thr-use-port", "aria-label": "Port to give it to" });
+  lines.forEach((ln, i) => {
+    for (const [end, word] of [["from_port", "start port"], ["to_port", "end port"]]) {
+      portSel.append(el("option", { value: `${i}:${end}` }, `${ln.name || `line ${i + 1}`}: ${word}`));
+    }
+  });
+  const go = el("button", { type: "button", id: "thr-use-go" }, "Use for this port");
+  go.addEventListener("click", () => {
+    const c = candidates[Number(threadSel.value)];
+    const [i, end] = portSel.value.split(":");
+    const line = state.job.lines[Number(i)];
+    if (!c || !line) return;
+    line[end] = { ...(line[end] || {}), thread: c.thread };
+    fillAll();
+    changed({ structural: true, recalc: true });
+    go.textContent = `Used: ${c.thread}`;
+  });
+  box.append(el("label", {}, "Thread ", threadSel), " ", el("label", {}, "for ", portSel), " ", go);
+  return box;
 }
 
 // ---------------------------------------------------------------- update notice
