@@ -295,8 +295,8 @@ def main() -> int:
                 r["first_result_after_worker_ready_ms"] = r["cold_ms"] - (r["worker_timings_ms"]["epoch_ready"] - origin)
             time.sleep(0.5)
             cdp = ctx.new_cdp_session(page)
-            metrics = {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]} \
-                if cdp.send("Performance.enable") is not None or True else {}
+            cdp.send("Performance.enable")
+            metrics = {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]}
             r["page_js_heap_used_bytes"] = metrics.get("JSHeapUsedSize")
             app_worker = next((w for w in page.workers if w.url.split("?")[0].endswith("/worker.js")), None)
             r["worker_wasm_memory_bytes"] = app_worker.evaluate(

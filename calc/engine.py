@@ -212,10 +212,10 @@ def _check(check: str, verdict: str, message: str) -> dict:
 
 
 def _bore_advice(q_m3_s: float, v_max_m_s: float) -> str:
-    """'use -8 or a larger bore (at least 11.3 mm)': the smallest dash size under ``v_max`` at ``q``."""
+    """'-8 or a larger bore (at least 11.3 mm)': the smallest dash size under ``v_max`` at ``q``."""
     d_mm = math.sqrt(4.0 * q_m3_s / (math.pi * v_max_m_s)) * 1e3
     dash = max(2, math.ceil(d_mm / (25.4 / 16.0) - 1e-9))
-    return f"use -{dash} or a larger bore (at least {d_mm:.1f} mm)"
+    return f"-{dash} or a larger bore (at least {d_mm:.1f} mm)"
 
 
 def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict]]:
@@ -230,10 +230,10 @@ def hydraulic_checks(circuit: Circuit, conditions: list[dict]) -> list[list[dict
         band = f"{lo:g}-{hi:g} m/s for a {ln['role']} line (common practice)"
         fix = _bore_advice(worst["lines"][j]["flow_lpm"] * LPM, hi)
         if v > 1.5 * hi:
-            checks.append(_check("velocity", "fail", f"{fix}: velocity {v:.1f} m/s at "
+            checks.append(_check("velocity", "fail", f"use {fix}: velocity {v:.1f} m/s at "
                                                      f"'{worst['name']}' is far above {band}"))
         elif v > hi:
-            checks.append(_check("velocity", "caution", f"consider {fix[4:]}: velocity {v:.1f} m/s at "
+            checks.append(_check("velocity", "caution", f"consider {fix}: velocity {v:.1f} m/s at "
                                                         f"'{worst['name']}' exceeds {band}"))
         else:
             checks.append(_check("velocity", "ok", f"velocity at most {v:.1f} m/s ('{worst['name']}'), "

@@ -6,7 +6,6 @@ with nothing of the text executed. The page keeps the current job when a file is
 (tested by the page's own tests).
 """
 import json
-import time
 
 import pytest
 
@@ -21,10 +20,9 @@ def _request_text(job_text: str) -> str:
 
 
 def _errors(text: str) -> list[dict]:
-    started = time.perf_counter()
+    # (How fast hostile files are refused is a matter for benchmarks, not timed tests; the api's
+    # size cap, calc.api.MAX_REQUEST_CHARS, is what bounds the work.)
     out = json.loads(handle(text))
-    # Bounded time: a hostile file must not hang the worker (common practice, no source: 2 s).
-    assert time.perf_counter() - started < 2.0
     assert out["ok"] is False, "a broken job file was accepted"
     for error in out["errors"]:
         assert isinstance(error["path"], str) and error["message"]

@@ -367,14 +367,11 @@ def test_property_bigger_cooler_never_raises_steady(w1, factor):
 
 
 # -- 7. result and environment -----------------------------------------------------------
-def test_result_keys_and_demo_timing():
-    import time
+def test_result_keys():
+    # Source: stated result shape (issue: thermal keys); speed is measured by bench/engine_bench.py.
     circuit, norm, _, _, _ = build(demo_job())
     ops = [circuit.operating_point(c) for c in norm["conditions"]]
-    thermal.assess(circuit, [circuit.operating_point(c) for c in norm["conditions"]])  # warm the air cache
-    t = time.perf_counter()
     th = thermal.assess(circuit, ops)
-    elapsed = time.perf_counter() - t
     for key in ("steady_temp_c", "full_lock_seconds_to_limit", "full_lock_curve", "cooler_needed_w_per_k",
                 "limit_c", "verdict", "message", "method", "checks"):
         assert key in th
@@ -383,7 +380,6 @@ def test_result_keys_and_demo_timing():
     for c in ops:
         assert {"heat_w", "heat_rejected_w"} <= set(c)
     assert 40 <= len(th["full_lock_curve"]) <= 51
-    assert elapsed < 0.05  # about 4 ms here; generous for a slow CI box
 
 
 def test_evaluate_carries_heat_per_condition():
