@@ -45,10 +45,13 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
+from sitebuild.assemble import build  # noqa: E402
+from sitebuild.fetch import PYODIDE_VERSION  # noqa: E402
+from sitebuild.render import load_demos  # noqa: E402
+from sitebuild.serve import SiteHandler  # noqa: E402
 from tests.browser_support import (  # noqa: E402
-    LAUNCH_ARGS, PROBE_JS, engine_config, find_chromium, load_build_module, probe_worker)
+    LAUNCH_ARGS, PROBE_JS, engine_config, find_chromium, probe_worker)
 
-build = load_build_module()
 TIMEOUT_MS = 180_000
 
 BENCH_FILES = {
@@ -118,8 +121,8 @@ json.dumps(out)
 """
 
 
-class CountingHandler(build.SiteHandler):
-    """build.py's handler, adding up the bytes it writes (headers and bodies)."""
+class CountingHandler(SiteHandler):
+    """The build's handler, adding up the bytes it writes (headers and bodies)."""
 
     def end_headers(self):
         super().end_headers()
@@ -255,9 +258,9 @@ def main() -> int:
 
     tmp = Path(tempfile.mkdtemp(prefix="linesmith-bench-"))
     site = tmp / "site"
-    manifest = build.build(site, extra_files=BENCH_FILES)
+    manifest = build(site, extra_files=BENCH_FILES)
     server, url = serve(site)
-    demos = build.load_demos()
+    demos = load_demos()
     demo = largest_demo(demos)
     jobs = edited_jobs(demo["job"], args.edits)
 
@@ -360,7 +363,7 @@ def main() -> int:
         "machine": machine(),
         "chromium": chromium_version,
         "browser": description,
-        "pyodide": build.PYODIDE_VERSION,
+        "pyodide": PYODIDE_VERSION,
         "build": manifest["build"],
         "runs": len(runs),
         "bare_pyodide_boot_ms": med("bare_boot_ms"),

@@ -5,10 +5,8 @@ Kept out of conftest.py on purpose: only the browser tests import this.
 
 from __future__ import annotations
 
-import importlib.util
 import os
 import shutil
-import sys
 import threading
 from contextlib import contextmanager
 from pathlib import Path
@@ -28,17 +26,6 @@ HOW_TO_INSTALL = (
     "Debian/Ubuntu, or `python -m playwright install chromium` elsewhere; or set "
     "LINESMITH_CHROMIUM to the path of a Chromium executable."
 )
-
-
-def load_build_module():
-    """Import the repository's build.py as a module (it is a script, not a package)."""
-    if "linesmith_build" in sys.modules:
-        return sys.modules["linesmith_build"]
-    spec = importlib.util.spec_from_file_location("linesmith_build", ROOT / "build.py")
-    module = importlib.util.module_from_spec(spec)
-    sys.modules["linesmith_build"] = module
-    spec.loader.exec_module(module)
-    return module
 
 
 def find_chromium(playwright) -> tuple[str | None, str]:
@@ -89,8 +76,9 @@ def launched_chromium():
 @contextmanager
 def serve_directory(directory: Path):
     """Serve directory on a free loopback port in a thread; yield the base URL."""
-    build = load_build_module()
-    server = build.make_server(directory, port=0, quiet=True)
+    from sitebuild.serve import make_server
+
+    server = make_server(directory, port=0, quiet=True)
     thread = threading.Thread(target=server.serve_forever, name="linesmith-test-server", daemon=True)
     thread.start()
     host, port = server.server_address[:2]
@@ -180,7 +168,7 @@ def engine_config(manifest: dict) -> dict:
     config = {"pyodide": "./pyodide/", "wheels": [f"./{w}" for w in wheels]}
     bytecode = [e["path"] for e in manifest["files"] if e["path"].startswith("wheels/") and e["path"].endswith(".zip")]
     if bytecode:
-        config["bytecode"] = f"./{bytecode[0]}"  # as build.py's page config passes it
+        config["bytecode"] = f"./{bytecode[0]}"  # as the build's page config passes it
     return config
 
 

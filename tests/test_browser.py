@@ -15,13 +15,16 @@ from urllib.parse import urlsplit
 
 import pytest
 
+from sitebuild.assemble import build
+from sitebuild.common import CONTENT_SECURITY_POLICY, DIST_DIR, BuildError
+from sitebuild.render import load_demos
+
 from .browser_support import (
     FAULT_ONCE_JS,
     PROBE_JS,
     compare_json,
     engine_config,
     launched_chromium,
-    load_build_module,
     parse_shown_number,
     probe_worker,
     serve_directory,
@@ -32,17 +35,16 @@ BOOT_TIMEOUT_MS = 120_000  # generous: a cold Pyodide boot on a slow CI box
 
 @pytest.fixture(scope="module")
 def built_site():
-    build = load_build_module()
     started = time.perf_counter()
     try:
-        manifest = build.build()
-    except build.BuildError as exc:
+        manifest = build()
+    except BuildError as exc:
         pytest.fail(f"build.py could not build dist/: {exc}")
     seconds = time.perf_counter() - started
     print(f"\nbuild: {seconds:.1f} s, {manifest['total_bytes']} bytes in {len(manifest['files'])} files")
-    demos = build.load_demos()
-    with serve_directory(build.DIST_DIR) as base_url:
-        yield {"build": build, "manifest": manifest, "demos": demos, "url": base_url}
+    demos = load_demos()
+    with serve_directory(DIST_DIR) as base_url:
+        yield {"manifest": manifest, "demos": demos, "url": base_url}
 
 
 @pytest.fixture(scope="module")
@@ -249,7 +251,7 @@ def test_job_name_with_markup_is_shown_as_text(built_site, browser):
         html = route.fetch().text()
         assert _tojson(demo["name"]) in html, "the demo's name is not in the page's data"
         route.fulfill(status=200, content_type="text/html; charset=utf-8",
-                      headers={"Content-Security-Policy": built_site["build"].CONTENT_SECURITY_POLICY},
+                      headers={"Content-Security-Policy": CONTENT_SECURITY_POLICY},
                       body=html.replace(_tojson(demo["name"]), _tojson(MARKUP_NAME)))
 
     context.route(built_site["url"], page_with_markup_name)

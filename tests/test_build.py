@@ -1,4 +1,4 @@
-"""Checks of build.py that need no browser: manifest, wheel, missing-npm message."""
+"""Checks of the build (build.py, sitebuild/) that need no browser: manifest, wheel, missing-npm message."""
 
 from __future__ import annotations
 
@@ -8,33 +8,32 @@ import zipfile
 
 import pytest
 
-from .browser_support import load_build_module
-
-build = load_build_module()
+from sitebuild import assemble, bytecode, cli, fetch, wheel
+from sitebuild.common import ROOT, SITE_DIR, BuildError
 
 
 def test_missing_npm_gives_one_sentence(tmp_path, monkeypatch):
     # Nothing cached in tmp_path and no npm on PATH: a BuildError, not a traceback.
-    monkeypatch.setattr(build.shutil, "which", lambda name: None)
-    with pytest.raises(build.BuildError) as info:
-        build.pyodide_tarball(tmp_path)
+    monkeypatch.setattr(fetch.shutil, "which", lambda name: None)
+    with pytest.raises(BuildError) as info:
+        fetch.pyodide_tarball(tmp_path)
     message = str(info.value)
-    assert "Node.js" in message and "npm" in message and build.PYODIDE_VERSION in message
+    assert "Node.js" in message and "npm" in message and fetch.PYODIDE_VERSION in message
     assert message.count(". ") == 0 and message.endswith(".")
 
 
 def test_missing_npm_exit_status(tmp_path, monkeypatch, capsys):
-    monkeypatch.setattr(build.shutil, "which", lambda name: None)
-    monkeypatch.setattr(build, "CACHE_DIR", tmp_path)
-    monkeypatch.setattr(build.build, "__defaults__", (tmp_path / "dist", tmp_path, None))
-    assert build.main([]) == 1
+    monkeypatch.setattr(fetch.shutil, "which", lambda name: None)
+    # main() builds with build()'s defaults: point them at tmp_path, away from the real cache and dist/.
+    monkeypatch.setattr(assemble.build, "__defaults__", (tmp_path / "dist", tmp_path, None))
+    assert cli.main([]) == 1
     err = capsys.readouterr().err.strip()
     assert err.startswith("Linesmith's build needs Node.js with npm") and "\n" not in err
 
 
 def test_calc_wheel_is_reproducible_and_complete(tmp_path):
-    first = build.build_calc_wheel(tmp_path / "a")
-    second = build.build_calc_wheel(tmp_path / "b")
+    first = wheel.build_calc_wheel(tmp_path / "a")
+    second = wheel.build_calc_wheel(tmp_path / "b")
     assert first.read_bytes() == second.read_bytes()
     names = zipfile.ZipFile(first).namelist()
     assert "calc/api.py" in names and "calc/__init__.py" in names
@@ -46,7 +45,7 @@ def test_calc_wheel_is_reproducible_and_complete(tmp_path):
 
 
 def test_manifest_lists_every_file_with_its_hash(tmp_path):
-    manifest = build.build(tmp_path / "dist")
+    manifest = assemble.build(tmp_path / "dist")
     dist = tmp_path / "dist"
     on_disk = {p.relative_to(dist).as_posix() for p in dist.rglob("*") if p.is_file()} - {"manifest.json"}
     assert {e["path"] for e in manifest["files"]} == on_disk
@@ -54,18 +53,18 @@ def test_manifest_lists_every_file_with_its_hash(tmp_path):
         data = (dist / entry["path"]).read_bytes()
         assert len(data) == entry["size"]
         assert hashlib.sha256(data).hexdigest() == entry["sha256"]
-    for name, sha256 in build.WHEELS.items():
-        # Source: sha256 values published by the package index for these files, pinned in build.py.
+    for name, sha256 in fetch.WHEELS.items():
+        # Source: sha256 values published by the package index for these files, pinned in sitebuild/fetch.py.
         assert hashlib.sha256((dist / "wheels" / name).read_bytes()).hexdigest() == sha256
-    assert {p.name for p in (dist / "pyodide").iterdir()} == set(build.PYODIDE_FILES)
+    assert {p.name for p in (dist / "pyodide").iterdir()} == set(fetch.PYODIDE_FILES)
 
 
 def test_lock_file_keeps_its_info_and_drops_the_package_list(tmp_path):
     import json
     import tarfile
 
-    build.copy_pyodide(build.pyodide_tarball(), tmp_path)
-    with tarfile.open(build.pyodide_tarball(), "r:gz") as tar:
+    fetch.copy_pyodide(fetch.pyodide_tarball(), tmp_path)
+    with tarfile.open(fetch.pyodide_tarball(), "r:gz") as tar:
         original = json.load(tar.extractfile("package/pyodide-lock.json"))
     trimmed = json.loads((tmp_path / "pyodide-lock.json").read_text())
     assert trimmed["info"] == original["info"] and trimmed["packages"] == {}
@@ -78,17 +77,17 @@ def test_lazy_packages_give_the_same_results_with_fewer_modules(tmp_path):
     import subprocess
     import sys
 
-    boot = build.SITE_DIR / "static" / "linesmith_boot.py"
+    boot = SITE_DIR / "static" / "linesmith_boot.py"
     script = tmp_path / "probe.py"
     script.write_text(
         "import json, sys\n"
-        f"sys.path[:0] = [{str(boot.parent)!r}, {str(build.ROOT)!r}]\n"
+        f"sys.path[:0] = [{str(boot.parent)!r}, {str(ROOT)!r}]\n"
         "import linesmith_boot\n"
         "table = json.loads(sys.argv[1])\n"
         "if table: linesmith_boot.install_lazy_packages(table)\n"
         "import calc.api, pathlib\n"
         "out = [calc.api.handle(json.dumps({'op': 'evaluate', 'job': json.loads(p.read_text())}))\n"
-        f"       for p in sorted(pathlib.Path({str(build.ROOT / 'calc' / 'data' / 'demos')!r}).glob('*.json'))]\n"
+        f"       for p in sorted(pathlib.Path({str(ROOT / 'calc' / 'data' / 'demos')!r}).glob('*.json'))]\n"
         "mods = sorted(m for m in sys.modules if m.split('.')[0] in ('fluids', 'ht'))\n"
         "print(json.dumps({'out': out, 'mods': mods}))\n", encoding="utf-8")
 
@@ -98,11 +97,11 @@ def test_lazy_packages_give_the_same_results_with_fewer_modules(tmp_path):
         assert proc.returncode == 0, proc.stderr
         return json.loads(proc.stdout)
 
-    # The table as build.py derives it: which submodule defines each name calc imports.
+    # The table as the build derives it (sitebuild/compile_in_pyodide.py): which submodule defines each name calc imports.
     import fluids
     import ht
     table = {"fluids": {}, "ht": {}}
-    for path in (build.ROOT / "calc").glob("*.py"):
+    for path in (ROOT / "calc").glob("*.py"):
         import ast
         for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
             if isinstance(node, ast.ImportFrom) and node.level == 0 and node.module in table:
@@ -118,7 +117,7 @@ def test_lazy_package_loads_whole_for_a_name_outside_its_table():
     import subprocess
     import sys
 
-    boot_dir = build.SITE_DIR / "static"
+    boot_dir = SITE_DIR / "static"
     code = (f"import sys; sys.path.insert(0, {str(boot_dir)!r}); import linesmith_boot\n"
             "linesmith_boot.install_lazy_packages({'fluids': {'friction_factor': 'friction'}})\n"
             "import fluids\n"
@@ -140,9 +139,9 @@ def test_build_ships_bytecode_for_the_browser_when_node_is_there(tmp_path):
 
     if shutil.which("node") is None:
         pytest.fail("Node.js is needed for the build (it fetches Pyodide and compiles the engine's bytecode)")
-    build.build(tmp_path / "site")
+    assemble.build(tmp_path / "site")
     site = tmp_path / "site"
-    with zipfile.ZipFile(site / "wheels" / build.BYTECODE_FILE) as zf:
+    with zipfile.ZipFile(site / "wheels" / bytecode.BYTECODE_FILE) as zf:
         names = zf.namelist()
         table = json.loads(zf.read("linesmith-lazy-names.json"))
     # The engine's modules on the page's path have Python 3.14 bytecode (the browser's CPython;
@@ -153,5 +152,5 @@ def test_build_ships_bytecode_for_the_browser_when_node_is_there(tmp_path):
     assert all(n.endswith(".cpython-314.pyc") for n in names if n.startswith(("calc/", "fluids/", "ht/")))
     assert table["fluids"]["friction_factor"] == "friction"  # Source: fluids 1.3.1 defines it in fluids/friction.py
     config = json.loads(re.search(r'id="linesmith-config">(.*?)</script>', (site / "index.html").read_text()).group(1))
-    assert config["bytecode"] == f"./wheels/{build.BYTECODE_FILE}"
+    assert config["bytecode"] == f"./wheels/{bytecode.BYTECODE_FILE}"
     assert "LAZY_NAMES = {}" not in (site / "linesmith_boot.py").read_text()

@@ -22,9 +22,12 @@ from urllib.parse import urlsplit
 
 import pytest
 
-from .browser_support import launched_chromium, load_build_module, serve_directory
+from sitebuild.assemble import build
+from sitebuild.bytecode import BYTECODE_FILE
+from sitebuild.common import CONTENT_SECURITY_POLICY
 
-build = load_build_module()
+from .browser_support import launched_chromium, serve_directory
+
 BOOT_TIMEOUT_MS = 120_000
 STAMP = "build-stamp.txt"
 
@@ -52,7 +55,7 @@ def test_precache_list_is_every_file_of_the_build(tmp_path):
     import base64
     import hashlib
 
-    manifest = build.build(tmp_path / "site")
+    manifest = build(tmp_path / "site")
     site = tmp_path / "site"
     build_id, files = _sw_files(site)
     assert build_id == manifest["build"]
@@ -68,9 +71,9 @@ def test_precache_list_is_every_file_of_the_build(tmp_path):
 
 
 def test_build_hash_follows_the_content(tmp_path):
-    a = build.build(tmp_path / "a")
-    b = build.build(tmp_path / "b")
-    c = build.build(tmp_path / "c", extra_files={STAMP: b"changed"})
+    a = build(tmp_path / "a")
+    b = build(tmp_path / "b")
+    c = build(tmp_path / "c", extra_files={STAMP: b"changed"})
     assert a["build"] == b["build"]  # same sources, same build: no needless reinstall
     assert c["build"] != a["build"]
     assert _sw_files(tmp_path / "a")[0] == a["build"] and _sw_files(tmp_path / "c")[0] == c["build"]
@@ -82,7 +85,7 @@ def _png_size(data: bytes) -> tuple[int, int]:
 
 
 def test_web_app_manifest_makes_the_page_installable(tmp_path):
-    build.build(tmp_path / "site")
+    build(tmp_path / "site")
     site = tmp_path / "site"
     app = json.loads((site / "manifest.webmanifest").read_text(encoding="utf-8"))
     assert app["name"] and app["short_name"] == "Linesmith"
@@ -149,7 +152,7 @@ def _assert_same_origin(log, base_url):
 def plain_static_server(tmp_path):
     """dist/ served by `python -m http.server -d DIR -b 127.0.0.1 PORT`, as the README says."""
     site = tmp_path / "site"
-    build.build(site)
+    build(site)
     proc = subprocess.Popen([sys.executable, "-u", "-m", "http.server", "-d", str(site), "-b", "127.0.0.1", "0"],
                             stdout=subprocess.PIPE, stderr=subprocess.DEVNULL, text=True)
     try:
@@ -180,7 +183,7 @@ def test_page_loads_and_computes_offline_after_one_visit(browser, plain_static_s
     timings = json.loads(page.get_attribute("body", "data-worker-timings") or "{}")
     print(f"\noffline reload to first result: {time.perf_counter() - started:.2f} s, worker {timings}")
     # The engine ran from the bytecode build.py compiled (when the build had Node.js to do it).
-    assert timings.get("bytecode") is (plain_static_server_site / "wheels" / build.BYTECODE_FILE).exists(), timings
+    assert timings.get("bytecode") is (plain_static_server_site / "wheels" / BYTECODE_FILE).exists(), timings
     assert page.evaluate("navigator.serviceWorker.controller !== null")
     # Truly offline: a file that is not part of the build cannot be fetched.
     assert page.evaluate("fetch('./not-in-the-build.txt').then(() => 'online', () => 'offline')") == "offline"
@@ -191,7 +194,7 @@ def test_page_loads_and_computes_offline_after_one_visit(browser, plain_static_s
 
 def test_new_build_replaces_the_cache_without_mixing_builds(browser, tmp_path):
     site = tmp_path / "site"
-    first = build.build(site, extra_files={STAMP: b"first"})
+    first = build(site, extra_files={STAMP: b"first"})
     with serve_directory(site) as url:
         context = browser.new_context()
         log = _watch(context)
@@ -202,14 +205,14 @@ def test_new_build_replaces_the_cache_without_mixing_builds(browser, tmp_path):
 
         # The service worker and the Pyodide worker run under the page's policy: it
         # comes with every response, also those answered from the cache.
-        csp = build.CONTENT_SECURITY_POLICY
+        csp = CONTENT_SECURITY_POLICY
         for path in ("sw.js", "worker.js", "index.html", "pyodide/pyodide.mjs"):
             got = page.evaluate("(p) => fetch(p).then((r) => r.headers.get('content-security-policy'))", path)
             assert got == csp, path
         assert "'wasm-unsafe-eval'" in csp and "worker-src 'self'" in csp
         assert "'unsafe-eval'" not in csp and "'unsafe-inline'" not in csp and "http" not in csp
 
-        second = build.build(site, extra_files={STAMP: b"second"})
+        second = build(site, extra_files={STAMP: b"second"})
         assert second["build"] != first["build"]
         page.reload()  # the update check finds the new sw.js; it installs beside the old one
         _wait(page, "engine", "ready", log)

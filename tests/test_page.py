@@ -22,8 +22,12 @@ from pathlib import Path
 
 import pytest
 
+from sitebuild.assemble import build
+from sitebuild.common import BuildError
+from sitebuild.render import load_demos
+
 from .browser_support import (
-    FAULT_ONCE_JS, launched_chromium, load_build_module, parse_shown_number, serve_directory)
+    FAULT_ONCE_JS, launched_chromium, parse_shown_number, serve_directory)
 
 BOOT_TIMEOUT_MS = 120_000
 # An invented circuit: a pressure line of fitting, hose and elbow; a return; a feed.
@@ -53,14 +57,13 @@ SHOTS = Path(os.environ.get("LINESMITH_SCREENS") or Path(tempfile.gettempdir()) 
 
 @pytest.fixture(scope="module")
 def site(tmp_path_factory):
-    build = load_build_module()
     out = tmp_path_factory.mktemp("page") / "dist"
     try:
-        build.build(out_dir=out)
-    except build.BuildError as exc:
+        build(out_dir=out)
+    except BuildError as exc:
         pytest.fail(f"build.py could not build the page: {exc}")
     with serve_directory(out) as url:
-        yield {"url": url, "demo": copy.deepcopy(JOB), "demos": build.load_demos()}
+        yield {"url": url, "demo": copy.deepcopy(JOB), "demos": load_demos()}
 
 
 @pytest.fixture(scope="module")
