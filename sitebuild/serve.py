@@ -4,13 +4,14 @@ from __future__ import annotations
 
 import functools
 import http.server
+from http import HTTPStatus
 from pathlib import Path
 
 from .common import CONTENT_SECURITY_POLICY, DIST_DIR
 
 
 class SiteHandler(http.server.SimpleHTTPRequestHandler):
-    """Static handler for dist/ with the page's security policy as headers."""
+    """Static handler for dist/: the page's headers on every response, no directory listings."""
 
     extensions_map = {
         **http.server.SimpleHTTPRequestHandler.extensions_map,
@@ -31,6 +32,11 @@ class SiteHandler(http.server.SimpleHTTPRequestHandler):
         self.send_header("X-Content-Type-Options", "nosniff")
         self.send_header("Cache-Control", "no-cache")
         super().end_headers()
+
+    def list_directory(self, path):
+        """A folder without index.html is not found: the site never lists its files."""
+        self.send_error(HTTPStatus.NOT_FOUND, "File not found")
+        return None
 
     def log_message(self, format, *args):  # noqa: A002 - signature fixed by http.server
         if getattr(self.server, "quiet", False):
