@@ -154,3 +154,15 @@ def test_build_ships_bytecode_for_the_browser_when_node_is_there(tmp_path):
     config = json.loads(re.search(r'id="linesmith-config">(.*?)</script>', (site / "index.html").read_text()).group(1))
     assert config["bytecode"] == f"./wheels/{bytecode.BYTECODE_FILE}"
     assert "LAZY_NAMES = {}" not in (site / "linesmith_boot.py").read_text()
+
+
+def test_build_package_stays_out_of_the_calc_wheel_and_install(tmp_path):
+    """sitebuild/ is build-time only: not in our wheel, not in setuptools' package list."""
+    import tomllib
+
+    names = zipfile.ZipFile(wheel.build_calc_wheel(tmp_path)).namelist()
+    tops = {n.split("/")[0] for n in names}
+    assert len(tops) == 2 and "calc" in tops and all(t == "calc" or t.endswith(".dist-info") for t in tops), tops
+    with open(ROOT / "pyproject.toml", "rb") as f:
+        setuptools = tomllib.load(f)["tool"]["setuptools"]
+    assert setuptools["packages"] == ["calc"]
