@@ -48,7 +48,7 @@ def import_as_the_page_does(sp, table, imports):
     """Forget fluids, ht and calc; import ``imports`` lazily and evaluate every demo job."""
     for name in [m for m in sys.modules if m.split(".")[0] in (*PACKAGES, "calc", "linesmith_boot")]:
         del sys.modules[name]
-    import linesmith_boot
+    import linesmith_boot  # only in Pyodide's site-packages, written there by the .mjs side
     linesmith_boot.install_lazy_packages(table)
     for name in imports:
         importlib.import_module(name)
