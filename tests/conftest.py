@@ -10,7 +10,9 @@ browser tests are never skipped.
 
 from __future__ import annotations
 
+import os
 from contextlib import contextmanager, nullcontext
+from pathlib import Path
 
 import pytest
 
@@ -19,23 +21,35 @@ from . import browser_setup
 
 @contextmanager
 def _on_the_terminal(config):
-    """Show output live, past pytest's capture; yield a say(message) for our own lines."""
+    """Show output live, past pytest's capture; yield a say(message) for our own lines.
+
+    Our first line starts on a line of its own; afterwards the test file's name is written
+    again, so the test's result letter lands after it as usual.
+    """
     capture = config.pluginmanager.getplugin("capturemanager")
     reporter = config.pluginmanager.getplugin("terminalreporter")
-    with capture.global_and_fixture_disabled() if capture is not None else nullcontext():
-        if reporter is not None:
+    interrupted = []  # the reporter's current file, once we have broken its line
+
+    def say(message: str) -> None:
+        line = f"[browser set-up] {message}"
+        if reporter is None:
+            print(line, flush=True)
+            return
+        if not interrupted:
+            interrupted.append(reporter.currentfspath)
             reporter.ensure_newline()  # after "tests/test_x.py ..."
             if getattr(reporter, "_width_of_current_line", 0):  # after the dots of `pytest -q`
                 reporter.write("\n")
+        reporter.write_line(line)
+        reporter.flush()  # before an installer writes to the same terminal
 
-        def say(message: str) -> None:
-            if reporter is not None:
-                reporter.write_line(f"[browser set-up] {message}")
-                reporter.flush()  # before an installer writes to the same terminal
-            else:
-                print(f"[browser set-up] {message}", flush=True)
-
-        yield say
+    with capture.global_and_fixture_disabled() if capture is not None else nullcontext():
+        try:
+            yield say
+        finally:
+            if interrupted and isinstance(interrupted[0], Path):
+                reporter.write(os.path.relpath(interrupted[0], reporter.startpath) + " ")
+                reporter.currentfspath = interrupted[0]
 
 
 @pytest.fixture(scope="session")

@@ -309,7 +309,11 @@ def fake_session(pytester, monkeypatch):
     return pytester, calls, use
 
 
-def test_fixture_sets_up_once_per_session_and_shows_its_messages(fake_session):
+@pytest.mark.parametrize("options, lines", [
+    ((), ["test_a.py .", "[[]browser set-up[]] fake set-up ran", "test_a.py .. *", "test_b.py . *"]),
+    (("-q",), [".", "[[]browser set-up[]] fake set-up ran", "... *"]),
+])
+def test_fixture_sets_up_once_per_session_and_shows_its_messages(fake_session, options, lines):
     pytester, calls, use = fake_session
 
     def found(say):
@@ -318,10 +322,10 @@ def test_fixture_sets_up_once_per_session_and_shows_its_messages(fake_session):
 
     use(found)
     pytester.makepyfile(test_a=BROWSER_TESTS, test_b="def test_three(chromium):\n    assert chromium\n")
-    result = pytester.runpytest_inprocess("-q")
+    result = pytester.runpytest_inprocess(*options)
     result.assert_outcomes(passed=4)
     assert calls == ["ensure"]
-    result.stdout.fnmatch_lines(["[[]browser set-up[]] fake set-up ran"])
+    result.stdout.fnmatch_lines(lines, consecutive=True)
 
 
 def test_fixture_is_not_used_without_browser_tests(fake_session):
