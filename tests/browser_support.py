@@ -22,17 +22,26 @@ LAUNCH_ARGS = [
 ]
 
 HOW_TO_INSTALL = (
-    "No Chromium found for the browser tests. Install one: `apt-get install chromium` on "
-    "Debian/Ubuntu, or `python -m playwright install chromium` elsewhere; or set "
-    "LINESMITH_CHROMIUM to the path of a Chromium executable."
+    "No Chromium found for the browser tests. Install one: `python -m playwright install chromium`, "
+    "or `apt-get install chromium` on Debian/Ubuntu; or set LINESMITH_CHROMIUM to the path of a "
+    "Chromium executable. (`python -m pytest` tries the first two itself, see tests/browser_setup.py.)"
 )
+
+# Where a system Chromium is looked for, in this order (after $LINESMITH_CHROMIUM and Playwright's own).
+SYSTEM_CHROMIUMS = ("/usr/bin/chromium", "/usr/bin/chromium-browser")
+
+
+class NoChromium(RuntimeError):
+    """No Chromium at any of the places find_chromium looks (as opposed to a bad $LINESMITH_CHROMIUM)."""
 
 
 def find_chromium(playwright) -> tuple[str | None, str]:
     """Return (executable_path or None for Playwright's own, description).
 
-    Order: $LINESMITH_CHROMIUM, Playwright's managed Chromium, /usr/bin/chromium.
-    Raises RuntimeError with install instructions when none is usable.
+    Order: $LINESMITH_CHROMIUM, Playwright's managed Chromium, then SYSTEM_CHROMIUMS
+    (/usr/bin/chromium, /usr/bin/chromium-browser). Raises NoChromium (a RuntimeError)
+    with install instructions when none is there, and a plain RuntimeError when
+    $LINESMITH_CHROMIUM names something that is not a file.
     """
     named = os.environ.get("LINESMITH_CHROMIUM")
     if named:
@@ -46,29 +55,25 @@ def find_chromium(playwright) -> tuple[str | None, str]:
         managed = None
     if managed and Path(managed).is_file():
         return None, f"Playwright's managed Chromium ({managed})"
-    for candidate in ("/usr/bin/chromium", "/usr/bin/chromium-browser"):
+    for candidate in SYSTEM_CHROMIUMS:
         if Path(candidate).is_file():
             return candidate, candidate
-    raise RuntimeError(HOW_TO_INSTALL)
+    raise NoChromium(HOW_TO_INSTALL)
 
 
 @contextmanager
-def launched_chromium():
-    """Start Playwright and launch the Chromium ``find_chromium`` picks: yields ``(browser, description)``.
+def launched_chromium(chromium):
+    """Launch the Chromium the session fixture ``chromium`` provides: yields ``(browser, description)``.
 
-    With no Chromium the calling test fails with ``HOW_TO_INSTALL`` (never skips).
+    ``chromium`` is a ``tests.browser_setup.Chromium`` (the fixture found or installed it
+    before the first browser test, or failed that test with what to install; never a skip).
     """
-    import pytest
     from playwright.sync_api import sync_playwright
 
     with sync_playwright() as playwright:
+        browser = playwright.chromium.launch(executable_path=chromium.executable, args=LAUNCH_ARGS, headless=True)
         try:
-            executable, description = find_chromium(playwright)
-        except RuntimeError as exc:
-            pytest.fail(str(exc), pytrace=False)
-        browser = playwright.chromium.launch(executable_path=executable, args=LAUNCH_ARGS, headless=True)
-        try:
-            yield browser, description
+            yield browser, chromium.description
         finally:
             browser.close()
 

@@ -48,8 +48,8 @@ def built_site():
 
 
 @pytest.fixture(scope="module")
-def browser():
-    with launched_chromium() as (browser, description):
+def browser(chromium):
+    with launched_chromium(chromium) as (browser, description):
         print(f"\nbrowser: {description}")
         yield browser
 

@@ -112,8 +112,8 @@ def test_web_app_manifest_makes_the_page_installable(tmp_path):
 
 
 @pytest.fixture(scope="module")
-def browser():
-    with launched_chromium() as (browser, _):
+def browser(chromium):
+    with launched_chromium(chromium) as (browser, _):
         yield browser
 
 

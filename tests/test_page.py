@@ -67,8 +67,8 @@ def site(tmp_path_factory):
 
 
 @pytest.fixture(scope="module")
-def page(site):
-    with launched_chromium() as (browser, _):
+def page(site, chromium):
+    with launched_chromium(chromium) as (browser, _):
         context = browser.new_context(viewport={"width": 1366, "height": 768}, accept_downloads=True)
         pg = context.new_page()
         console: list[str] = []
