@@ -13,7 +13,7 @@ every cold run on a fresh browser profile (a new persistent context in a temp di
     result on screen), and its ratio to (a);
 (c) warm start: a second visit once the service worker has stored the build;
 (d) recalculation of the largest demo job over N edits: time inside the worker
-    around calc.api.handle and the round trip from the page; CPython's time of
+    around calc.edges.api.handle and the round trip from the page; CPython's time of
     the same handle calls in this process, and the ratio;
 (e) bytes sent by the server on the first visit (bodies and headers, no
     compression), and memory after start: the page's JS heap (CDP
@@ -94,7 +94,7 @@ def reimport(lazy):
     importlib.invalidate_caches()
     if lazy:
         linesmith_boot.install_lazy_packages()
-    t = time.perf_counter(); import calc.api, calc.engine, calc.thermal
+    t = time.perf_counter(); import calc.edges.api
     n = sum(1 for m in sys.modules if m.split(".")[0] in ("fluids", "ht"))
     return {"ms": (time.perf_counter() - t) * 1e3, "fluids_ht_modules": n}
 
@@ -254,7 +254,7 @@ def main() -> int:
     args = ap.parse_args()
 
     from playwright.sync_api import sync_playwright
-    from calc.api import handle
+    from calc.edges.api import handle
 
     tmp = Path(tempfile.mkdtemp(prefix="linesmith-bench-"))
     site = tmp / "site"

@@ -1,22 +1,27 @@
 """Linesmith engine: hose, fitting and line calculations for hydraulic power-steering circuits.
 
-``evaluate(job)`` is the entry point (JSON-shaped dict in, JSON-shaped dict out).
-The modules, one per concern:
+``calc.evaluate(job)`` is the entry point (JSON-shaped dict in, JSON-shaped dict out, no I/O).
+The layers, each importing only the ones above it in this list:
 
-- ``calc.schema`` / ``calc.model``: the job model, declared once, and its validation;
-- ``calc.fluid``: viscosity (ASTM D341), density, presets;
-- ``calc.pump``: delivered flow with the flow-control cap;
-- ``calc.hydraulics``: velocity, Reynolds number and pressure drop of parts (fluids);
-- ``calc.engine``: the circuit at every operating point, the stages and the checks;
-- ``calc.ratings`` / ``calc.routing``: part ratings, weakest part, hose selection, route geometry;
-- ``calc.thermal``: heat load and rejection (ht), steady temperature, full-lock warm-up, cooler sizing;
-- ``calc.threads``: thread tables, identification and adapter plans;
-- ``calc.units``: display units, used only at the edges;
-- ``calc.report``: the readable text report and the cautions;
-- ``calc.api``: the JSON-string entry point the browser worker calls;
-- ``calc.cli``: the command line (``python -m calc``).
+- ``calc.physics``: pure functions on numbers (fluid properties, pump delivery, friction, minor
+  losses, convection and heat, lumped balances, wall strength, route geometry, thread form);
+- ``calc.data``: the part tables with their provenance, and the practice constants;
+- ``calc.model``: the job declaration, the result declaration and the prepared (read-only) job;
+- ``calc.system``: the circuit as a system of parts: compiled lines, operating points, the
+  thermal model, part ratings, thread identification and adapter plans;
+- ``calc.stages``: ports, circuit, ratings, selection and thermal; each returns its own section
+  of the result with its checks in words;
+- ``calc.pipeline``: ``evaluate`` and ``sweep``, which run the stages in order;
+- ``calc.edges``: the API the browser worker calls, the command line, the text report, units.
 """
-from .engine import evaluate
-
 __all__ = ["evaluate"]
 __version__ = "0.1.0"
+
+
+def __getattr__(name):
+    # evaluate is imported on first use: `python -m calc describe` and the thread command do
+    # not need the engine's physics libraries.
+    if name == "evaluate":
+        from .pipeline import evaluate
+        return evaluate
+    raise AttributeError(f"module 'calc' has no attribute {name!r}")

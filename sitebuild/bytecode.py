@@ -29,7 +29,7 @@ from .fetch import PYODIDE_INTEGRITY
 
 BYTECODE_FILE = "bytecode-cp314.zip"
 # The modules the page imports at start; the engine's bytecode covers what they import.
-BYTECODE_IMPORTS = ("calc.api", "calc.engine", "calc.thermal")
+BYTECODE_IMPORTS = ("calc.edges.api", "calc.pipeline")
 
 NODE_SCRIPT = Path(__file__).with_name("compile_in_pyodide.mjs")
 PYODIDE_SCRIPT = Path(__file__).with_name("compile_in_pyodide.py")

@@ -30,9 +30,9 @@ TABLE_NAME = "linesmith-lazy-names.json"  # read back by sitebuild/bytecode.py
 
 
 def lazy_table(sp):
-    """{package: {name: submodule}} for every name calc/*.py imports from fluids or ht."""
+    """{package: {name: submodule}} for every name calc/**/*.py imports from fluids or ht."""
     wanted = {}
-    for path in sorted(pathlib.Path(sp, "calc").glob("*.py")):
+    for path in sorted(pathlib.Path(sp, "calc").rglob("*.py")):
         for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
             if isinstance(node, ast.ImportFrom) and node.level == 0 and node.module in PACKAGES:
                 wanted.setdefault(node.module, set()).update(a.name for a in node.names)
@@ -55,7 +55,7 @@ def import_as_the_page_does(sp, table, imports):
     # The engine imports some modules on first use: evaluate every demo job, as the page does at start.
     for demo in sorted(pathlib.Path(sp, "calc", "data", "demos").glob("*.json")):
         job = json.loads(demo.read_text(encoding="utf-8"))
-        sys.modules["calc.api"].handle(json.dumps({"op": "evaluate", "job": job}))
+        sys.modules["calc.edges.api"].handle(json.dumps({"op": "evaluate", "job": job}))
 
 
 def site_package_sources(sp):

@@ -1,7 +1,8 @@
 """The page: index.html rendered with jinja2 from site/templates/ and the engine's job model.
 
 ``engine_page_model`` is the one place the build reads the engine; everything the
-page needs from calc (the job model, the unit table, the cautions) comes through it.
+page needs from calc (the job model, the result declaration, the unit table, the cautions)
+comes through it.
 """
 
 from __future__ import annotations
@@ -14,13 +15,14 @@ from .fetch import PYODIDE_VERSION
 
 
 def engine_page_model() -> dict:
-    """The engine's job model, unit table and cautions, for the form and the page's script."""
-    from calc.model import describe_job
-    from calc.report import CAUTIONS
-    from calc.units import UNITS
+    """The engine's job model, result declaration, unit table and cautions, for the form and the page's script."""
+    from calc.edges.report import CAUTIONS
+    from calc.edges.units import UNITS
+    from calc.model.job import describe_job
+    from calc.model.result import describe_result
 
-    return {"model": describe_job(), "units": {k: list(v) for k, v in UNITS.items()},
-            "cautions": list(CAUTIONS)}
+    return {"model": describe_job(), "result_model": describe_result(),
+            "units": {k: list(v) for k, v in UNITS.items()}, "cautions": list(CAUTIONS)}
 
 
 def load_demos() -> list[dict]:

@@ -34,8 +34,8 @@ def _package_files() -> list[tuple[str, bytes]]:
             continue
         if path.suffix == ".py" or (path.suffix == ".json" and "data" in rel.parts):
             files.append((rel.as_posix(), path.read_bytes()))
-    if not any(n == "calc/api.py" for n, _ in files):
-        raise BuildError("calc/api.py is missing: the page needs calc.api.handle to run the engine.")
+    if not any(n == "calc/edges/api.py" for n, _ in files):
+        raise BuildError("calc/edges/api.py is missing: the page needs calc.edges.api.handle to run the engine.")
     return files
 
 

@@ -155,7 +155,7 @@ async (config) => {
 # as a real Python-level failure inside Pyodide would; later calls run normally.
 FAULT_ONCE_JS = """
 () => self.linesmithEngine.pyodide.runPython(`
-import calc.api as _api
+import calc.edges.api as _api
 class SimulatedEngineFault(BaseException):
     pass
 def _fail_once(request, _real=_api.dispatch):

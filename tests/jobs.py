@@ -29,3 +29,17 @@ def simple_job(bore_mm=9.5, flow_lpm=7.5, relief_bar=85.0, length_m=1.0):
              "parts": [{"kind": "hose", "bore_mm": 9.5, "length_m": 1.0}, {"kind": "exit", "bore_mm": 9.5}]},
         ],
     })
+
+
+def named_hose(job, line=0, part=1, cls="SAE 100R2AT", dash=6):
+    """The job with one hose part naming a class and dash size instead of a bore."""
+    p = job["lines"][line]["parts"][part]
+    p.pop("bore_mm", None)
+    p.update({"class": cls, "dash": dash})
+    return job
+
+
+def errors_of(result):
+    """A refused result's errors by path."""
+    assert not result["ok"]
+    return {e["path"]: e["message"] for e in result["errors"]}

@@ -7,7 +7,6 @@ processes (exit status, time limit, process group killed).
 
 from __future__ import annotations
 
-import os
 import re
 import sys
 import time

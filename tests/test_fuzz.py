@@ -1,6 +1,6 @@
 """Fuzzing the engine over the job model with hypothesis.
 
-Jobs are generated from the job model's own declaration (``calc.model.JOB``): mostly valid values
+Jobs are generated from the job model's own declaration (``calc.model.job.JOB``): mostly valid values
 within each field's limits, sometimes a wrong type, NaN, infinity, a value out of range, a missing or
 unknown key. Every generated job must either evaluate, with only finite numbers in the result, or
 come back with field-named errors. No other exception, ever.
@@ -11,9 +11,9 @@ import math
 from hypothesis import HealthCheck, given, settings, strategies as st
 
 from calc import evaluate
-from calc.api import handle
-from calc.schema import REQUIRED, Field, ListOf, Record, Variants
-from calc.model import JOB
+from calc.edges.api import handle
+from calc.model.schema import REQUIRED, Field, ListOf, Record, Variants
+from calc.model.job import JOB
 
 from .jobs import demo_job
 

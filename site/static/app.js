@@ -3,8 +3,8 @@
 // Text from a job (names typed by a user) is always inserted with textContent.
 import { clone, el, readJSON } from "./js/util.js";
 import { getSystem, setSystem, unitLabel } from "./js/units.js";
-import { assignStaticPaths, fillAll, initForm, localErrors, resetPending, showErrors } from "./js/form.js";
-import { renderPlots, renderProblems, renderResult, setCautions, sweepJob } from "./js/results.js";
+import { assignStaticPaths, fillAll, initForm, localErrors, refreshDashes, resetPending, showErrors } from "./js/form.js";
+import { renderPlots, renderProblems, renderResult, setCautions } from "./js/results.js";
 import { renderSheet } from "./js/sheet.js";
 import { autosave, readJobFile, restore, saveFile, UNITS_KEY } from "./js/storage.js";
 
@@ -26,7 +26,7 @@ const state = {
   resultRev: -1,
   errors: [],        // the engine's problems with the job (by field path)
   fault: null,       // the engine's own failure on the last evaluation, in words
-  sweep: null,       // {rev, result | error, rpm}
+  sweep: null,       // {rev, result | error}: the engine's drop-against-temperature curve
 };
 
 function setStatus(text, percent) {
@@ -88,7 +88,7 @@ function schedule(delay = DEBOUNCE_MS) {
   timer = setTimeout(recalc, delay);
 }
 
-// calc.api.handle answers a failure of the engine itself (not of the job) with one
+// calc.edges.api.handle answers a failure of the engine itself (not of the job) with one
 // error of empty path and "internal error: ..."; the worker does the same for an
 // exception that crosses the Python bridge. The next request is handled as usual.
 function isEngineFault(error) {
@@ -149,15 +149,14 @@ async function recalc() {
 
 async function runSweep(rev) {
   if (inflight || rev !== state.rev || !state.result) return;
-  const { job, rpm } = sweepJob(state.resultJob, state.result.conditions);
   inflight = true;
-  const reply = await call({ op: "sweep", job });
+  const reply = await call({ op: "drop_curve", job: state.resultJob });
   inflight = false;
   if (again) { again = false; recalc(); }
   if (rev !== state.rev) return; // stale
-  state.sweep = reply.ok ? { rev, rpm, result: reply.result }
-    : { rev, rpm, error: (reply.errors || []).map((e) => `${e.path}: ${e.message}`).join("; ") };
-  if (state.result) renderPlots(state.result, state.resultJob, state.sweep, model.default_conditions);
+  state.sweep = reply.ok ? { rev, result: reply.result }
+    : { rev, error: (reply.errors || []).map((e) => `${e.path}: ${e.message}`).join("; ") };
+  if (state.result) renderPlots(state.result, state.sweep);
   body.dataset.sweepRev = String(rev);
 }
 
@@ -167,8 +166,9 @@ function show() {
   if (state.result) {
     renderResult(state.result, state.resultJob);
     const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
-    renderPlots(state.result, state.resultJob, sweep, model.default_conditions);
+    renderPlots(state.result, sweep);
     renderSheet(state.resultJob, state.result);
+    refreshDashes();
   }
   if (state.result || state.errors.length) resultsSection.hidden = false;
 }

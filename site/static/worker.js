@@ -1,7 +1,7 @@
 // Linesmith engine worker: boots Pyodide, installs the wheels shipped beside
 // the page (fetched in parallel with the boot, unpacked into site-packages:
 // they are pure-Python wheels) and answers requests through
-// calc.api.handle(json) -> json.
+// calc.edges.api.handle(json) -> json.
 // Every message in either direction is a JSON string:
 //   page -> worker  {"type": "init", "pyodide": "./pyodide/", "wheels": [...],
 //                    "bytecode": "./wheels/bytecode-cp314.zip" (optional)}
@@ -9,7 +9,7 @@
 //   worker -> page  {"type": "progress", "percent": P, "text": "..."}
 //                   {"type": "ready", "timings_ms": {...}}
 //                   {"type": "reply", "id": N, "response": "<response JSON>",
-//                    "handle_ms": time spent in calc.api.handle}
+//                    "handle_ms": time spent in calc.edges.api.handle}
 //                   {"type": "failed", "message": "..."}
 import { loadPyodide } from "./pyodide/pyodide.mjs";
 
@@ -73,7 +73,7 @@ async function boot(config) {
   pyodide.pyimport("linesmith_boot").prepare();
   const tWheels = performance.now();
   progress(85, "Starting the engine…");
-  const api = pyodide.pyimport("calc.api");
+  const api = pyodide.pyimport("calc.edges.api");
   handle = api.handle;
   // For tests and the browser benchmark (Playwright's worker.evaluate): the
   // runtime, to read its memory or to make the engine fail on purpose. Only
@@ -101,7 +101,7 @@ function call(id, request) {
   try {
     response = handle(request);
   } catch (error) {
-    // calc.api.handle never raises an Exception by contract; this guards the
+    // calc.edges.api.handle never raises an Exception by contract; this guards the
     // bridge itself (a BaseException, a runtime error): the page gets an error
     // reply it can show, and the next request is handled as usual.
     const text = String((error && error.message) || error).trim().split("\n").pop();

@@ -24,8 +24,8 @@ DEMOS = ROOT / "calc" / "data" / "demos"
 
 def outputs(demo: Path) -> dict[str, str]:
     """The golden outputs of one demo job, by file name."""
-    from calc.api import handle
-    from calc.cli import main
+    from calc.edges.api import handle
+    from calc.edges.cli import main
 
     def cli(*args: str) -> str:
         buf = io.StringIO()
@@ -53,7 +53,7 @@ THREAD_READINGS = [(14.2, 25.4 / 18, True, None), (13.95, 1.5, True, None), (11.
 
 def other_outputs() -> dict[str, str]:
     """The job model and the thread operation, which the restructure must keep as they are."""
-    from calc.api import handle
+    from calc.edges.api import handle
     threads = [json.loads(handle(json.dumps({"op": "thread", "args": {"major_mm": d, "pitch_mm": p, "male": m,
                                                                        "tapered": t}})))
                for d, p, m, t in THREAD_READINGS]

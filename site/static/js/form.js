@@ -2,7 +2,8 @@
 // fills it from the job, writes edits back (engine units), and renders the lists
 // (operating points, lines, parts, bends) from the <template> of their record kind.
 import { clone, deletePath, el, getPath, parsePath, setPath } from "./util.js";
-import { dashText, fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
+import { fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
+import { resultPart } from "./declared.js";
 
 let model = null;       // describe_job()
 let state = null;       // { job } owned by app.js
@@ -124,12 +125,30 @@ function presetValue(path) {
   return values && typeof values[m[1]] === "number" ? values[m[1]] : undefined;
 }
 
+// The dash size beside a bore or outside diameter comes from the engine's last result, and only
+// while that result was computed for the value now in the field.
 function updateDash(input) {
   const out = input.closest(".fld")?.querySelector("output.dash");
   if (!out) return;
+  const m = /^lines\[(\d+)\]\.parts\[(\d+)\]\.(\w+)$/.exec(input.dataset.path || "");
   const v = shownValue(input.dataset.path);
-  const text = typeof v === "number" ? dashText(v) : "";
-  out.textContent = text ? `dash ${text}` : "";
+  const part = m && typeof v === "number" ? resultPart(state.result, Number(m[1]), Number(m[2])) : null;
+  const fresh = part && typeof part.dash === "number" && part.size_mm === sizeOf(getPath(state.job, `lines[${m[1]}].parts[${m[2]}]`));
+  out.textContent = fresh ? `dash ${part.dash_exact ? "" : "≈ "}-${part.dash}` : "";
+}
+
+// The size the engine reports for a part: a tube's outside diameter, otherwise its bore.
+function sizeOf(part) {
+  if (!part) return undefined;
+  return part.kind === "tube" ? part.od_mm : part.bore_mm;
+}
+
+// After a new result: every dash size beside the form's diameters.
+export function refreshDashes() {
+  for (const out of formEl().querySelectorAll("output.dash")) {
+    const input = out.closest(".fld")?.querySelector("[data-key]");
+    if (input) updateDash(input);
+  }
 }
 
 export function fillAll() {

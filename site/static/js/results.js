@@ -1,7 +1,8 @@
 // Results: per-line verdicts, checks in words, tables per part and operating point,
 // node pressures, rating with margins and cautions, hose candidates, thermal, plots.
-import { badge, el, worstVerdict } from "./util.js";
+import { badge, el } from "./util.js";
 import { fmt, fmtDiff, toShow, unitLabel } from "./units.js";
+import { declared, heading, partDash } from "./declared.js";
 import { lineChart } from "./plots.js";
 
 let CAUTIONS = [];
@@ -10,6 +11,11 @@ export function setCautions(list) { CAUTIONS = list; }
 const U = (kind) => unitLabel(kind);
 function numCell(tag, value, kind, field, decimals) {
   return el(tag, { class: "num", "data-field": field }, fmt(value, kind, decimals));
+}
+
+// A cell for a value of the result, converted by the unit the engine declares for its path.
+function resCell(tag, value, path, field, decimals) {
+  return numCell(tag, value, declared(path).unit, field, decimals);
 }
 
 export function cautionsList(cls = "cautions") {
@@ -21,13 +27,15 @@ export function cautionsList(cls = "cautions") {
   return box;
 }
 
-function partLabel(job, li, k) {
+// The part as the user listed it, with the dash size the engine gives its size.
+function partLabel(job, result, li, k) {
   const p = ((job.lines || [])[li] || {}).parts?.[k] || {};
   const bits = [p.kind || "part"];
   if (p.class) bits.push(`${p.class}${p.dash ? ` -${p.dash}` : ""}`);
-  const dash = (mm) => `-${Math.round(mm / 25.4 * 16)}`;
-  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")} (${dash(p.od_mm)})`);
-  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} bore (${dash(p.bore_mm)})`);
+  const dash = partDash(result, li, k);
+  const tag = dash ? ` (${dash})` : "";
+  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")}${tag}`);
+  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} bore${tag}`);
   if (p.shape && p.shape !== "straight") bits.push(p.shape);
   return `${k}: ${bits.join(" ")}`;
 }
@@ -79,8 +87,10 @@ function checksBlock(checks) {
 function partsTable(result, job, li) {
   const table = el("table", { class: "parts-table", "data-line": String(li) });
   const head = el("tr");
-  for (const t of ["Part", `Velocity (${U("speed_m_s")})`, "Re", "Regime", `Drop (${U("pressure_bar")})`,
-    `Temp. rise (${U("temp_diff_c")})`, `Pressure after (${U("pressure_bar")})`]) head.append(el("th", { scope: "col" }, t));
+  const P = "conditions[].lines[].parts[].";
+  for (const t of [declared(`${P}job_part`).label, heading(`${P}velocity_m_s`), heading(`${P}reynolds`),
+    heading(`${P}regime`), heading(`${P}pressure_drop_bar`), heading(`${P}temp_rise_c`),
+    `Pressure after (${unitLabel(declared("conditions[].lines[].nodes[].pressure_bar").unit)})`]) head.append(el("th", { scope: "col" }, t));
   table.append(el("thead", {}, head));
   result.conditions.forEach((cond, ci) => {
     const line = cond.lines[li];
@@ -89,21 +99,21 @@ function partsTable(result, job, li) {
     const inlet = (line.nodes || []).find((n) => n.after_part === -1);
     const hr = el("tr", { class: "cond-row" });
     hr.append(el("th", { colspan: "4", scope: "rowgroup" }, `${cond.name}: ${fmt(line.flow_lpm, "flow_lpm")} ${U("flow_lpm")}, ${fmt(cond.viscosity_cst, "viscosity_cst")} cSt`),
-      numCell("td", line.pressure_drop_bar, "pressure_bar", "line_drop_bar", [3, 2]),
-      el("td", { class: "num" }, fmtDiff(line.temp_rise_c, "temp_diff_c")),
+      resCell("td", line.pressure_drop_bar, "conditions[].lines[].pressure_drop_bar", "line_drop_bar", [3, 2]),
+      el("td", { class: "num" }, fmtDiff(line.temp_rise_c, declared("conditions[].lines[].temp_rise_c").unit)),
       el("td", { class: "num" }, inlet ? `in ${fmt(inlet.pressure_bar, "pressure_bar")}` : ""));
     tb.append(hr);
     (line.parts || []).forEach((part, k) => {
       const node = (line.nodes || []).find((n) => n.after_part === k);
       const jobPart = part.job_part === undefined ? k : part.job_part;
       const tr = el("tr", { "data-part": String(k), "data-job-part": jobPart === null ? "adapter" : String(jobPart) });
-      tr.append(el("th", { scope: "row" }, part.adapter ? `adapter: ${part.adapter}` : partLabel(job, li, jobPart)),
-        numCell("td", part.velocity_m_s, "speed_m_s", "velocity_m_s"),
-        numCell("td", part.reynolds, null, "reynolds", 0),
+      tr.append(el("th", { scope: "row" }, part.adapter ? `adapter: ${part.adapter}` : partLabel(job, result, li, jobPart)),
+        resCell("td", part.velocity_m_s, `${P}velocity_m_s`, "velocity_m_s"),
+        resCell("td", part.reynolds, `${P}reynolds`, "reynolds", 0),
         el("td", { "data-field": "regime" }, part.regime || ""),
-        numCell("td", part.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
-        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(part.temp_rise_c, "temp_diff_c", 3)),
-        numCell("td", node ? node.pressure_bar : null, "pressure_bar", "node_bar"));
+        resCell("td", part.pressure_drop_bar, `${P}pressure_drop_bar`, "pressure_drop_bar", [3, 2]),
+        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(part.temp_rise_c, declared(`${P}temp_rise_c`).unit, 3)),
+        resCell("td", node ? node.pressure_bar : null, "conditions[].lines[].nodes[].pressure_bar", "node_bar"));
       tb.append(tr);
     });
     table.append(tb);
@@ -117,8 +127,10 @@ function candidatesBlock(cands) {
   det.append(el("summary", {}, `Hose candidates: ${ok.length} pass of ${cands.length} (smallest, then lightest first)`));
   const table = el("table", { class: "cand-table" });
   const head = el("tr");
-  for (const t of ["#", "Class", "Dash", `Bore (${U("length_mm")})`, "Verdict", `Velocity max (${U("speed_m_s")})`,
-    `Drop (${U("pressure_bar")})`, `Working (${U("pressure_bar")})`, "Why not"]) head.append(el("th", { scope: "col" }, t));
+  const C = "lines[].candidates[].";
+  for (const t of ["#", heading(`${C}class`), heading(`${C}dash`), heading(`${C}bore_mm`), heading(`${C}verdict`),
+    heading(`${C}velocity_max_m_s`), heading(`${C}pressure_drop_bar`), heading(`${C}working_bar`),
+    heading(`${C}reasons`)]) head.append(el("th", { scope: "col" }, t));
   table.append(el("thead", {}, head));
   const tb = el("tbody");
   const SHOW_REJECTED = 6;
@@ -127,10 +139,10 @@ function candidatesBlock(cands) {
     if (c.verdict === "fail" && ++rejected > SHOW_REJECTED) return;
     tb.append(el("tr", { "data-candidate": String(i) },
       el("td", { class: "num" }, String(i + 1)), el("td", {}, c.class), el("td", {}, `-${c.dash}`),
-      numCell("td", c.bore_mm, "length_mm", "bore_mm", [2, 3]), el("td", {}, badge(c.verdict)),
-      numCell("td", c.velocity_max_m_s, "speed_m_s", "velocity_max_m_s"),
-      numCell("td", c.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
-      numCell("td", c.working_bar, "pressure_bar", "working_bar", [0, 0]),
+      resCell("td", c.bore_mm, `${C}bore_mm`, "bore_mm", [2, 3]), el("td", {}, badge(c.verdict)),
+      resCell("td", c.velocity_max_m_s, `${C}velocity_max_m_s`, "velocity_max_m_s"),
+      resCell("td", c.pressure_drop_bar, `${C}pressure_drop_bar`, "pressure_drop_bar", [3, 2]),
+      resCell("td", c.working_bar, `${C}working_bar`, "working_bar", [0, 0]),
       el("td", {}, (c.reasons || []).join("; "))));
   });
   table.append(tb);
@@ -143,7 +155,7 @@ function lineCards(result, job) {
   const box = document.getElementById("line-results");
   box.replaceChildren();
   (result.lines || []).forEach((line, li) => {
-    const verdict = worstVerdict(line.checks);
+    const verdict = line.verdict;
     const card = el("article", { class: `line-card verdict-${verdict}`, "data-line-card": String(li) });
     card.append(el("h3", { class: "line-title" }, badge(verdict), " ", el("span", { class: "line-card-name" }, line.name || `line ${li + 1}`), ` (${line.role})`));
     card.append(checksBlock(line.checks || []));
@@ -186,32 +198,29 @@ function conditionBlocks(result) {
     const block = el("article", { class: "condition", "data-condition": String(ci) });
     block.append(el("h4", { class: "condition-name" }, condition.name));
     const summary = el("dl", { class: "condition-summary" });
-    for (const [label, field, kind, dec] of [
-      ["Pump flow", "pump_flow_lpm", "flow_lpm"],
-      ["Pump outlet pressure", "pump_outlet_bar", "pressure_bar", [2, 1]],
-      ["Pump inlet pressure", "pump_inlet_bar", "pressure_bar", [2, 1]],
-      ["Fluid viscosity", "viscosity_cst", "viscosity_cst"],
-      ["Heat generated", "heat_w", "power_w"],
-    ]) {
+    for (const [field, dec] of [["pump_flow_lpm"], ["pump_outlet_bar", [2, 1]], ["pump_inlet_bar", [2, 1]],
+      ["viscosity_cst"], ["heat_w"]]) {
       if (condition[field] === undefined) continue;
+      const row = declared(`conditions[].${field}`);
       const dd = el("dd");
-      dd.append(numCell("span", condition[field], kind, field, dec), ` ${U(kind)}`);
-      summary.append(el("dt", {}, label), dd);
+      dd.append(numCell("span", condition[field], row.unit, field, dec), ` ${U(row.unit)}`);
+      summary.append(el("dt", {}, row.label), dd);
     }
-    summary.append(el("dt", {}, "Relief valve"), el("dd", {}, condition.relief_open ? "open" : "closed"));
+    summary.append(el("dt", {}, declared("conditions[].relief_open").label), el("dd", {}, condition.relief_open ? "open" : "closed"));
     block.append(summary);
     const table = el("table", { class: "lines" });
     const head = el("tr");
-    for (const text of ["Line", "Role", `Velocity, max (${U("speed_m_s")})`, "Reynolds number, min",
-      `Pressure drop (${U("pressure_bar")})`, `Temp. rise (${U("temp_diff_c")})`]) head.append(el("th", { scope: "col" }, text));
+    const L = "conditions[].lines[].";
+    for (const text of [heading(`${L}name`), heading(`${L}role`), heading(`${L}velocity_max_m_s`), heading(`${L}reynolds_min`),
+      heading(`${L}pressure_drop_bar`), heading(`${L}temp_rise_c`)]) head.append(el("th", { scope: "col" }, text));
     table.append(el("thead", {}, head), el("tbody"));
     (condition.lines || []).forEach((line, li) => {
       const row = el("tr", { "data-line": String(li) });
       row.append(el("th", { scope: "row", class: "line-name" }, line.name), el("td", {}, line.role),
-        numCell("td", line.velocity_max_m_s, "speed_m_s", "velocity_max_m_s"),
-        numCell("td", line.reynolds_min, null, "reynolds_min", 0),
-        numCell("td", line.pressure_drop_bar, "pressure_bar", "pressure_drop_bar", [3, 2]),
-        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(line.temp_rise_c, "temp_diff_c", 3)));
+        resCell("td", line.velocity_max_m_s, `${L}velocity_max_m_s`, "velocity_max_m_s"),
+        resCell("td", line.reynolds_min, `${L}reynolds_min`, "reynolds_min", 0),
+        resCell("td", line.pressure_drop_bar, `${L}pressure_drop_bar`, "pressure_drop_bar", [3, 2]),
+        el("td", { class: "num", "data-field": "temp_rise_c" }, fmtDiff(line.temp_rise_c, declared(`${L}temp_rise_c`).unit, 3)));
       table.tBodies[0].append(row);
     });
     block.append(el("div", { class: "table-wrap" }, table));
@@ -235,18 +244,17 @@ function summaryBlock(result) {
   box.replaceChildren();
   const table = el("table", { class: "summary-table" });
   table.append(el("caption", { class: "visually-hidden" }, "Verdict per line"));
-  table.append(el("thead", {}, el("tr", {}, ...["Line", "Verdict", "Not passing", `Largest drop (${U("pressure_bar")})`,
-    "Working margin"].map((t) => el("th", { scope: "col" }, t)))));
+  table.append(el("thead", {}, el("tr", {}, ...["Line", heading("lines[].verdict"), "Not passing",
+    heading("lines[].pressure_drop_max_bar"), heading("lines[].rating.margin")].map((t) => el("th", { scope: "col" }, t)))));
   const tb = el("tbody");
   (result.lines || []).forEach((line, li) => {
-    const drops = (result.conditions || []).map((c) => (c.lines[li] || {}).pressure_drop_bar).filter((v) => typeof v === "number");
     const bad = (line.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
     tb.append(el("tr", { "data-summary-line": String(li) },
       el("th", { scope: "row" }, `${line.name || `line ${li + 1}`} (${line.role})`),
-      el("td", {}, badge(worstVerdict(line.checks))),
+      el("td", {}, badge(line.verdict)),
       el("td", {}, bad.length ? bad.join(", ") : "none"),
-      numCell("td", drops.length ? Math.max(...drops) : null, "pressure_bar", "max_drop_bar", [2, 1]),
-      numCell("td", line.rating ? line.rating.margin : null, null, "margin", 2)));
+      resCell("td", line.pressure_drop_max_bar, "lines[].pressure_drop_max_bar", "max_drop_bar", [2, 1]),
+      resCell("td", line.rating ? line.rating.margin : null, "lines[].rating.margin", "margin", 2)));
   });
   if (result.thermal) {
     const bad = (result.thermal.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
@@ -285,35 +293,7 @@ export function renderProblems(errors, localErrors, fault = null) {
 
 // ---------------------------------------------------------------- plots
 
-export function flowCurve(pump, rpmMax) {
-  const pts = [];
-  const ratio = pump.pulley_ratio ?? 1.0, eta = pump.volumetric_efficiency ?? 0.9;
-  if (typeof pump.displacement_cc_rev !== "number" || typeof pump.flow_limit_lpm !== "number") return pts;
-  const n = 40;
-  for (let i = 0; i <= n; i++) {
-    const rpm = (rpmMax * i) / n;
-    // Q = displacement x engine speed x pulley ratio x volumetric efficiency, capped (calc/pump.py)
-    const q = Math.min(pump.displacement_cc_rev * rpm * ratio * eta / 1000, pump.flow_limit_lpm);
-    pts.push([rpm, toShow(q, "flow_lpm")]);
-  }
-  return pts;
-}
-
-export function sweepJob(job, conditions) {
-  const temps = conditions.map((c) => c.fluid_temp_c);
-  const lo = Math.min(...temps), hi = Math.max(...temps, lo + 20);
-  const running = conditions.filter((c) => !c.full_lock);
-  const rpm = Math.max(...(running.length ? running : conditions).map((c) => c.engine_rpm));
-  const n = 8;
-  const sweep = [];
-  for (let i = 0; i <= n; i++) {
-    const t = lo + ((hi - lo) * i) / n;
-    sweep.push({ name: `sweep ${i}`, engine_rpm: rpm, fluid_temp_c: Number(t.toFixed(3)), full_lock: false, duty_percent: 0 });
-  }
-  return { job: { ...job, conditions: sweep }, rpm };
-}
-
-export function renderPlots(result, job, sweep, defaults) {
+export function renderPlots(result, sweep) {
   const box = document.getElementById("plots");
   box.replaceChildren();
   box.append(el("h3", {}, "Plots"));
@@ -326,22 +306,20 @@ export function renderPlots(result, job, sweep, defaults) {
       points: r.conditions.map((c) => [toShow(c.fluid_temp_c, "temp_c"), toShow(c.lines[li].pressure_drop_bar, "pressure_bar")]),
     }));
     grid.append(el("figure", { class: "plot" }, lineChart({
-      id: "drop-vs-temp", title: `Pressure drop against fluid temperature (${sweep.rpm} rpm)`,
+      id: "drop-vs-temp", title: `Pressure drop against fluid temperature (${r.engine_rpm} rpm)`,
       xLabel: `fluid temperature (${T})`, yLabel: `pressure drop (${P})`, series, yZero: true,
     })));
   } else {
     grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, sweep && sweep.error
       ? `Pressure drop against temperature: ${sweep.error}` : "Pressure drop against temperature: computing…")));
   }
-  const conds = job.conditions || defaults;
-  const rpmMax = Math.max(3000, ...conds.map((c) => c.engine_rpm || 0)) * 1.1;
-  const pump = job.pump || {};
-  if (typeof pump.flow_limit_lpm === "number") {
+  const curve = result.pump_curve;
+  if (curve && Array.isArray(curve.points)) {
     grid.append(el("figure", { class: "plot" }, lineChart({
       id: "flow-vs-speed", title: "Delivered flow against engine speed",
       xLabel: "engine speed (rpm)", yLabel: `delivered flow (${Q})`, markers: false,
-      series: [{ name: "delivered flow", points: flowCurve(pump, Math.round(rpmMax)), markers: false }],
-      hlines: [{ y: toShow(pump.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(pump.flow_limit_lpm, "flow_lpm")} ${Q}` }],
+      series: [{ name: "delivered flow", points: curve.points.map((p) => [p.engine_rpm, toShow(p.delivered_lpm, "flow_lpm")]), markers: false }],
+      hlines: [{ y: toShow(curve.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(curve.flow_limit_lpm, "flow_lpm")} ${Q}` }],
       yZero: true,
     })));
   }

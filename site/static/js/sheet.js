@@ -1,21 +1,23 @@
 // Build sheet: what the shop cuts and crimps from, per line, plus a parts list.
 // Shown only in print (and by the "Print build sheet" button).
-import { badge, el, worstVerdict } from "./util.js";
-import { dashText, fmt, unitLabel } from "./units.js";
+import { badge, el } from "./util.js";
+import { fmt, unitLabel } from "./units.js";
+import { partDash } from "./declared.js";
 import { cautionsList } from "./results.js";
 
 const U = (k) => unitLabel(k);
 
-function partSpec(p) {
+// dash: the dash size the engine gives the part's size ("-6", "≈ -6" or "").
+function partSpec(p, dash = "") {
   if (p.kind === "hose") {
     const cls = p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "hose, class not named";
-    const bore = typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} (dash ${dashText(p.bore_mm)})`
+    const bore = typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}${dash ? ` (dash ${dash})` : ""}`
       : p.dash ? `, dash -${p.dash}` : "";
     return `Hose ${cls}${bore}, length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`;
   }
   if (p.kind === "tube") {
     return `Rigid tube ${p.material || "steel-low-carbon"}, ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")} `
-      + `(OD dash ${dashText(p.od_mm)}), length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`
+      + `${dash ? `(OD dash ${dash}), ` : ""}length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`
       + ((p.bends || []).length ? `, ${(p.bends || []).length} bend(s) at ${(p.bends || []).map((b) => `${b.angle_deg ?? 90}° R${fmt(b.radius_mm, "length_mm", [0, 2])}`).join(", ")}` : "");
   }
   if (p.kind === "fitting") {
@@ -64,7 +66,7 @@ export function renderSheet(job, result) {
   (job.lines || []).forEach((line, li) => {
     const r = (result.lines || [])[li] || { checks: [] };
     const sec = el("section", { class: "sheet-line", "data-sheet-line": String(li) });
-    sec.append(el("h3", {}, badge(worstVerdict(r.checks)), ` Line ${li + 1}: `, el("span", {}, line.name || "(unnamed)"), ` (${line.role})`));
+    sec.append(el("h3", {}, badge(r.verdict || "caution"), ` Line ${li + 1}: `, el("span", {}, line.name || "(unnamed)"), ` (${line.role})`));
     const dl = el("dl", { class: "kv" });
     const row = (a, b) => dl.append(el("dt", {}, a), el("dd", {}, b));
     const parts = line.parts || [];
@@ -109,7 +111,7 @@ export function renderSheet(job, result) {
     }
     sec.append(dl);
     const ol = el("ol", { class: "sheet-parts", start: "0" });
-    (line.parts || []).forEach((p) => ol.append(el("li", {}, partSpec(p))));
+    (line.parts || []).forEach((p, k) => ol.append(el("li", {}, partSpec(p, partDash(result, li, k)))));
     sec.append(el("h4", {}, "Parts in flow order (hose, tube, fittings and adapters)"), ol);
     const bad = (r.checks || []).filter((c) => c.verdict !== "ok");
     if (bad.length) {

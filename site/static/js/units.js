@@ -60,12 +60,3 @@ export function inputText(value, kind) {
   const shown = toShow(value, kind);
   return String(Number(shown.toPrecision(6)));
 }
-
-// Dash size of a bore or outside diameter: sixteenths of an inch.
-export function dashText(mm) {
-  if (typeof mm !== "number" || !(mm > 0)) return "";
-  const sixteenths = mm / 25.4 * 16;
-  const dash = Math.round(sixteenths);
-  const near = Math.abs(sixteenths - dash) <= 0.15;
-  return `${near ? "" : "≈ "}-${dash} (${sixteenths.toFixed(2)}/16 in)`;
-}

@@ -69,12 +69,6 @@ export const VERDICT_WORDS = { ok: "OK", caution: "CAUTION", fail: "FAIL" };
 export const VERDICT_MARKS = { ok: "✓", caution: "!", fail: "✗" };
 const ORDER = { ok: 0, caution: 1, fail: 2 };
 
-export function worstVerdict(checks) {
-  let worst = "ok";
-  for (const c of checks || []) if (ORDER[c.verdict] > ORDER[worst]) worst = c.verdict;
-  return worst;
-}
-
 export function badge(verdict, extraText) {
   const v = VERDICT_WORDS[verdict] ? verdict : "caution";
   return el("span", { class: `badge badge-${v}`, "data-verdict": v },

@@ -1,0 +1,40 @@
+"""Practice constants: the trade's rules of thumb and the engine's stated choices, each with its basis.
+
+Every check that compares with a limit of practice reads it here, so a limit has one home.
+"""
+from __future__ import annotations
+
+__all__ = ["INLET_MIN_BAR", "VELOCITY_BANDS_M_S", "TEMP_CAUTION_K", "LOW_PRESSURE_BAR", "TABLE_ROUNDING",
+           "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE"]
+
+#: Lowest pump-inlet gauge pressure before aeration and cavitation, bar (common practice, no source).
+INLET_MIN_BAR = -0.2
+
+#: Velocity bands by line role, m/s (common practice, no single source): feed 0.6-1.2 m/s (2-4 ft/s),
+#: return 1.5-3 m/s (5-10 ft/s), pressure 2-6 m/s (7-20 ft/s).
+VELOCITY_BANDS_M_S = {"feed": (0.6, 1.2), "return": (1.5, 3.0), "pressure": (2.0, 6.0)}
+
+#: Caution band below a temperature limit, K: ageing of rubber and oil roughly doubles per 10 K
+#: (common practice, no source).
+TEMP_CAUTION_K = 10.0
+
+#: Below this gauge pressure a line's pressure rating is not checked against a required figure, bar
+#: (a stated choice: feed and drain lines that stay near atmospheric).
+LOW_PRESSURE_BAR = 1.0
+
+#: Relative slack in the design-factor check for the rounding of tabulated bar figures (0.5 %, a stated
+#: choice).
+TABLE_ROUNDING = 0.005
+
+#: The full-lock curve ends this far above the fluid's limit, K (a stated choice: the lumped model means
+#: nothing far above the limit).
+CURVE_OVER_LIMIT_K = 25.0
+
+#: Tolerances of thread identification (see ``calc.system.threads`` for the reasoning).
+THREAD_TOLERANCE = {
+    "male_under_mm": 0.35, "male_over_mm": 0.10,
+    "female_under_mm": 0.10, "female_over_mm": 0.40,
+    "pitch_percent": 1.0,
+    "taper_widening": "gauge length / 16 on both sides (tapered threads only)",
+    "source": "common practice, no source; allowances after ASME B1.1 class 2A/2B and ISO 965-1 6g/6H (from memory)",
+}

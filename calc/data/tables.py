@@ -1,0 +1,201 @@
+"""The part tables: one loader for every JSON table in ``calc/data/``, with lookups.
+
+Tables (each row names its ``source``; recalled figures say "from memory"):
+
+* ``hoses.json``: hose classes by standard and dash size, and typical hose walls by bore;
+* ``tubes.json``: rigid-tube materials (strength, bend rule, wall conductivity);
+* ``fittings.json``: fitting families with working pressure per size, and seal materials;
+* ``threads.json``: thread dimensions and the fitting ends that use each thread;
+* ``fluids.json``: generic fluid presets and the defaults of a custom fluid.
+
+Every row is read-only (``calc.data.frozen``): the engine never edits a table.
+"""
+from __future__ import annotations
+
+import json
+import re
+from functools import lru_cache
+from importlib import resources
+
+from .frozen import FrozenDict, freeze
+
+__all__ = ["load", "hose_classes", "find_class", "typical_hose_walls", "tube_materials", "fitting_families",
+           "seals", "threads", "ends", "find_thread", "fluid_presets", "custom_fluid_defaults", "size_row",
+           "end_families", "seal_words", "port_words"]
+
+
+@lru_cache(maxsize=None)
+def load(name: str) -> FrozenDict:
+    """The table ``calc/data/<name>``, parsed once and read-only.
+
+    Examples
+    --------
+    >>> load("tubes.json")["materials"][0]["material"]
+    'steel-low-carbon'
+    """
+    text = (resources.files(__package__) / name).read_text(encoding="utf-8")
+    return freeze(json.loads(text))
+
+
+def _key(name: str) -> str:
+    return " ".join(str(name).replace("-", " ").casefold().split())
+
+
+@lru_cache(maxsize=1)
+def hose_classes() -> FrozenDict:
+    """Hose classes from ``hoses.json`` by their name (``'SAE 100R2AT'`` ...)."""
+    return FrozenDict({c["class"]: c for c in load("hoses.json")["classes"]})
+
+
+def find_class(name: str) -> FrozenDict | None:
+    """The hose class named ``name``, ignoring case, spacing and the standard prefix.
+
+    Examples
+    --------
+    >>> find_class("100r2at")["class"], find_class("en 853 2sn")["standard"]
+    ('SAE 100R2AT', 'EN 853')
+    """
+    k = _key(name)
+    for cname, c in hose_classes().items():
+        ck = _key(cname)
+        if k == ck or ck.endswith(" " + k) and (ck.startswith("sae ") or ck.startswith("en 853 ")):
+            return c
+    return None
+
+
+def typical_hose_walls() -> tuple:
+    """Typical hose wall by bore: rows ``{bore_mm, wall_mm, source}``, in order of bore."""
+    return load("hoses.json")["typical_walls"]
+
+
+@lru_cache(maxsize=1)
+def tube_materials() -> FrozenDict:
+    """Tube materials from ``tubes.json`` by key (``'steel-low-carbon'`` ...)."""
+    return FrozenDict({m["material"]: m for m in load("tubes.json")["materials"]})
+
+
+@lru_cache(maxsize=1)
+def fitting_families() -> FrozenDict:
+    """Fitting families from ``fittings.json`` by key (``'jic-37'`` ...)."""
+    return FrozenDict({f["family"]: f for f in load("fittings.json")["families"]})
+
+
+def seals() -> FrozenDict:
+    """Seal materials (``nbr``, ``fkm``, ``metal``) with their temperature range."""
+    return load("fittings.json")["seals"]
+
+
+def size_row(rows, dash):
+    """The row of ``rows`` whose ``dash`` is ``dash``, or None.
+
+    Examples
+    --------
+    >>> size_row(hose_classes()["SAE 100R2AT"]["sizes"], 6)["bore_mm"]
+    9.52
+    """
+    for r in rows:
+        if r["dash"] == dash:
+            return r
+    return None
+
+
+@lru_cache(maxsize=1)
+def _thread_tables() -> tuple[FrozenDict, tuple]:
+    doc = load("threads.json")
+    uses: dict[str, list] = {t["designation"]: [] for t in doc["threads"]}
+    for e in doc["ends"]:
+        if e["thread"] is not None:
+            uses[e["thread"]].append(e)
+    rows = FrozenDict({t["designation"]: FrozenDict(t, ends=tuple(uses[t["designation"]]))
+                       for t in doc["threads"]})
+    return rows, doc["ends"]
+
+
+def threads() -> FrozenDict:
+    """Thread rows by designation, each with ``ends``: the fitting-end rows that use the thread.
+
+    Examples
+    --------
+    >>> row = threads()["9/16-18 UNF"]
+    >>> round(row["major_mm"], 4), sorted({e["family"] for e in row["ends"]})
+    (14.2875, ['banjo', 'jic-37', 'orb'])
+    """
+    return _thread_tables()[0]
+
+
+def ends() -> tuple:
+    """Every fitting-end row: family, size, thread, seal, working_bar, bore_mm, sources.
+
+    Examples
+    --------
+    >>> [e["thread"] for e in ends() if e["family"] == "cone-24-l" and e["size"] == "10L"]
+    ['M16x1.5']
+    """
+    return _thread_tables()[1]
+
+
+def _norm(text: str) -> str:
+    s = text.strip().replace("\u00d7", "x").replace("X", "x")
+    s = re.sub(r"\s+", " ", s)
+    return s.upper()
+
+
+def find_thread(designation) -> FrozenDict | None:
+    """The thread row for a designation (case and spacing ignored), or ``None``.
+
+    Examples
+    --------
+    >>> find_thread("m16 x 1.5")["designation"]
+    'M16x1.5'
+    >>> find_thread("1/4 bspp")["tpi"]
+    19
+    >>> find_thread("M17x1") is None
+    True
+    """
+    if not isinstance(designation, str):
+        return None
+    key = _norm(designation)
+    key_tight = key.replace(" X ", "X").replace(" X", "X").replace("X ", "X")
+    for d, t in threads().items():
+        if _norm(d) in (key, key_tight):
+            return t
+    return None
+
+
+@lru_cache(maxsize=1)
+def fluid_presets() -> FrozenDict:
+    """Generic fluids by preset key (``'atf-typical'`` ...), each with its values and ``source``.
+
+    Examples
+    --------
+    >>> fluid_presets()["iso-vg32"]["visc_40c_cst"]
+    32.0
+    """
+    return FrozenDict({p["preset"]: FrozenDict({k: v for k, v in p.items() if k != "preset"})
+                       for p in load("fluids.json")["presets"]})
+
+
+def custom_fluid_defaults() -> FrozenDict:
+    """Values that fill the optional fields of a fluid given by its datasheet (mineral oil, from memory)."""
+    return load("fluids.json")["custom_defaults"]["values"]
+
+
+def end_families() -> FrozenDict:
+    """Fitting-end families of the adapter planner: ``{family: {label, standard, gender}}``.
+
+    Examples
+    --------
+    >>> end_families()["jic-37"]["standard"]
+    'SAE J514'
+    """
+    return load("threads.json")["end_families"]
+
+
+def seal_words() -> FrozenDict:
+    """The sealing method of each port seal type, in words."""
+    return load("threads.json")["seal_words"]
+
+
+def port_words() -> FrozenDict:
+    """What a port of each seal type is, in words."""
+    return load("threads.json")["port_words"]

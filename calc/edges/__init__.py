@@ -1,0 +1,6 @@
+"""Edges: where the engine meets the world. Nothing here knows physics.
+
+``api`` (the JSON-string entry point the browser worker calls), ``cli`` (``python -m calc``),
+``report`` (the readable text report and the cautions) and ``units`` (display units, the only
+place that converts).
+"""

@@ -1,0 +1,197 @@
+"""The readable text report of an evaluated job (command line).
+
+Every figure is shown in the unit its key is declared with in ``calc.model.result``, converted
+to the display system by ``calc.edges.units``; the sentences are localized the same way.
+"""
+from __future__ import annotations
+
+from ..model.result import field_at
+from .units import label, localize_result, to_display
+
+__all__ = ["text_report", "CAUTIONS"]
+
+#: The cautions shown wherever a rating is shown (page, report, build sheet).
+CAUTIONS = (
+    "Never exceed the maker's rated working pressure of any part.",
+    "A hose assembly is rated only as high as its weakest component: hose, fitting or adapter.",
+    "A high-pressure fluid injection injury needs emergency medical care even when it looks minor.",
+    "Depressurise the circuit and let the fluid cool before working on it.",
+    "This tool does not replace the maker's data, local codes or licensed practice.",
+)
+
+_COND = "conditions[]."
+_LINE = "conditions[].lines[]."
+_PART = "conditions[].lines[].parts[]."
+
+
+class _Show:
+    """Figures of the result in one display system, by their declared unit."""
+
+    def __init__(self, units: str):
+        self.units = units
+
+    def num(self, v, path: str, fmt: str = "{:.2f}") -> str:
+        return fmt.format(to_display(v, field_at(path).unit, self.units))
+
+    def unit(self, path: str) -> str:
+        return label(field_at(path).unit, self.units)
+
+    def fig(self, v, path: str, fmt: str = "{:.2f}") -> str:
+        """Number and unit: '1.98 gpm'."""
+        return f"{self.num(v, path, fmt)} {self.unit(path)}"
+
+
+def _rating_lines(ln: dict, s: _Show) -> list[str]:
+    """The rating of one line: assembly working and burst, margin, weakest part."""
+    r = ln["rating"]
+
+    def p(v, key):
+        return "unknown" if v is None else s.fig(v, f"lines[].rating.{key}", "{:.0f}")
+    out = [f"    rating: working {p(r['working_bar'], 'working_bar')}, burst {p(r['burst_bar'], 'burst_bar')}, "
+           f"must hold {s.fig(r['required_bar'], 'lines[].rating.required_bar', '{:.1f}')} ({r['required_basis']})"]
+    wp = r["weakest_part"]
+    if r["required_bar"] < 1.0:
+        head = "    margin: not limiting, the line stays near atmospheric"
+    else:
+        margin = "unknown" if r["margin"] is None else f"{r['margin']:.2f}"
+        burst = "unknown" if r["burst_margin"] is None else f"{r['burst_margin']:.1f}:1"
+        head = (f"    margin {margin} (working / required), burst margin {burst} against "
+                f"{r['design_factor']:g}:1")
+    out.append(head + "; weakest part: " + (f"{wp['index']} {wp['description']}" if wp else "none rated")
+               + (f"; unrated parts: {', '.join(map(str, r['unrated_parts']))}" if r["unrated_parts"] else ""))
+    return out
+
+
+def _candidate_lines(ln: dict, s: _Show, show: int = 5) -> list[str]:
+    """Ranked hose candidates of one line: the passing ones, then why the first rejected ones fail."""
+    cands = ln["candidates"]
+    ok = [c for c in cands if c["verdict"] != "fail"]
+    bad = [c for c in cands if c["verdict"] == "fail"]
+    out = [f"    hose candidates: {len(ok)} pass, {len(bad)} rejected (smallest, then lightest first)"
+           + ("" if ln["rating"].get("dp_budget_bar") is not None else
+              "; no pressure-drop budget set (dp_budget_bar), so the drop does not limit the size")]
+    for c in ok[:show]:
+        out.append(f"      {c['verdict']:<7} {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): v "
+                   f"{s.fig(c['velocity_max_m_s'], 'lines[].candidates[].velocity_max_m_s')}, drop "
+                   f"{s.fig(c['pressure_drop_bar'], 'lines[].candidates[].pressure_drop_bar')}"
+                   + (f"; {'; '.join(c['reasons'])}" if c["reasons"] else ""))
+    for c in bad[:max(0, show - len(ok[:show])) or 2]:
+        out.append(f"      fail    {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): {', '.join(c['failed'])}: "
+                   + "; ".join(c["reasons"]))
+    return out
+
+
+def _steady_lines(th: dict, s: _Show, temp) -> list[str]:
+    st = th.get("steady", {})
+    if th.get("steady_temp_c") is not None:
+        out = [f"  steady temperature {temp(th['steady_temp_c'])} (heat "
+               f"{s.fig(th.get('steady_heat_w', 0.0), 'thermal.steady_heat_w', '{:.0f}')} duty-weighted; "
+               f"{st.get('iterations', 0)} evaluations)"]
+    else:
+        out = [f"  steady temperature: {st.get('message', 'not found')}"]
+    d_ = "thermal.steady_duty[]."
+    for d in th.get("steady_duty", []):
+        out.append(f"    {d['name']:<22} {d['duty_percent']:5.1f} %  heat {s.fig(d['heat_w'], d_ + 'heat_w', '{:7.0f}')}"
+                   f"  rejected {s.fig(d['heat_rejected_w'], d_ + 'heat_rejected_w', '{:7.0f}')} "
+                   f"(lines {s.num(d['lines_w'], d_ + 'lines_w', '{:.0f}')}, reservoir "
+                   f"{s.num(d['reservoir_w'], d_ + 'reservoir_w', '{:.0f}')}, cooler "
+                   f"{s.num(d['cooler_w'], d_ + 'cooler_w', '{:.0f}')})")
+    return out
+
+
+def _thermal_lines(th: dict, s: _Show) -> list[str]:
+    """The fluid-temperature section (calc.stages.thermal)."""
+    def temp(v):
+        return "n/a" if v is None else s.fig(v, "thermal.limit_c", "{:.1f}")
+
+    out = ["", f"Fluid temperature: [{th['verdict']}] {th['message']}",
+           f"  air {temp(th['air_temp_c'])}, limit {temp(th['limit_c'])} ({th.get('limit_basis', 'fluid')}), "
+           f"target {temp(th['target_c'])}"]
+    out.extend(_steady_lines(th, s, temp))
+    fl = th.get("full_lock", {})
+    out.append(f"  full-lock hold from {temp(fl.get('start_temp_c'))}: {fl.get('message', '')}")
+    curve = th.get("full_lock_curve") or []
+    if curve:
+        step = max(1, len(curve) // 5)
+        out.append("    " + ", ".join(f"{p['t_s']:.0f} s {s.num(p['temp_c'], 'thermal.full_lock_curve[].temp_c', '{:.0f}')}"
+                                      for p in curve[::step]) + f" {s.unit('thermal.full_lock_curve[].temp_c')}"
+                   + (f" ({fl['curve_note']})" if fl.get("curve_note") else ""))
+    need = th.get("cooler_needed_w_per_k")
+    out.append("  cooler: " + th.get("cooler_message", "")
+               + (f" [{s.fig(need, 'thermal.cooler_needed_w_per_k', '{:.1f}')}]" if need else ""))
+    for ch in th.get("checks", []):
+        out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+    return out
+
+
+def _condition_lines(c: dict, s: _Show) -> list[str]:
+    out = [f"== {c['name']}: {c['engine_rpm']:.0f} rpm, fluid {s.fig(c['fluid_temp_c'], _COND + 'fluid_temp_c', '{:.0f}')}"
+           f"{', full lock' if c['full_lock'] else ''}; viscosity {c['viscosity_cst']:.1f} cSt, "
+           f"density {s.fig(c['density_kg_m3'], _COND + 'density_kg_m3', '{:.0f}')}",
+           f"   pump flow {s.fig(c['pump_flow_lpm'], _COND + 'pump_flow_lpm')}"
+           f"{' (flow control limiting)' if c['flow_control_limiting'] else ''}, "
+           f"circuit flow {s.fig(c['circuit_flow_lpm'], _COND + 'circuit_flow_lpm')}, "
+           f"over relief {s.fig(c['relief_flow_lpm'], _COND + 'relief_flow_lpm')}",
+           f"   pump outlet {s.fig(c['pump_outlet_bar'], _COND + 'pump_outlet_bar')}, "
+           f"pump inlet {s.fig(c['pump_inlet_bar'], _COND + 'pump_inlet_bar', '{:.3f}')}"
+           + ("" if c.get("has_feed_line", True) else " (no feed line listed)")]
+    if "heat_w" in c:
+        out.append(f"   heat generated {s.fig(c['heat_w'], _COND + 'heat_w', '{:.0f}')}"
+                   + (f", rejected {s.fig(c['heat_rejected_w'], _COND + 'heat_rejected_w', '{:.0f}')} "
+                      "at this temperature" if "heat_rejected_w" in c else ""))
+    v_unit, p_unit = s.unit(_PART + "velocity_m_s"), s.unit(_PART + "pressure_drop_bar")
+    for ln in c["lines"]:
+        out.append(f"   -- {ln['name']} ({ln['role']}): flow {s.fig(ln['flow_lpm'], _LINE + 'flow_lpm')}, "
+                   f"drop {s.fig(ln['pressure_drop_bar'], _LINE + 'pressure_drop_bar', '{:.3f}')}, "
+                   f"v max {s.fig(ln['velocity_max_m_s'], _LINE + 'velocity_max_m_s')}, "
+                   f"Re min {ln['reynolds_min']:.0f}, "
+                   f"dT {s.fig(ln['temp_rise_c'], _LINE + 'temp_rise_c', '{:.3f}')}")
+        out.append(f"      {'#':>3} {'part':<9} {'v ' + v_unit:>10} {'Re':>8} {'regime':<13} {'drop ' + p_unit:>11}")
+        for pt in ln.get("parts", []):
+            out.append(f"      {pt['index']:>3} {pt['kind']:<9} {s.num(pt['velocity_m_s'], _PART + 'velocity_m_s'):>10} "
+                       f"{pt['reynolds']:>8.0f} {pt['regime']:<13} "
+                       f"{s.num(pt['pressure_drop_bar'], _PART + 'pressure_drop_bar', '{:.4f}'):>11}")
+    return out + [""]
+
+
+def text_report(res: dict, units: str = "metric") -> str:
+    """Format an ``evaluate`` result as plain text tables.
+
+    Parameters
+    ----------
+    res : dict
+        A successful ``calc.evaluate`` result.
+    units : str
+        'metric' (bar, L/min, mm, C) or 'us' (psi, gpm, in, F).
+    """
+    res = localize_result(res, units)
+    s = _Show(units)
+    out = [f"Linesmith report: {res['job_name'] or '(unnamed job)'}",
+           f"Fluid: {res['fluid']['name']} ({res['fluid']['source']})", ""]
+    for c in res["conditions"]:
+        out.extend(_condition_lines(c, s))
+    out.append("Checks per line")
+    rated = False
+    for ln in res["lines"]:
+        out.append(f"  {ln['name']} ({ln['role']})")
+        if "rating" in ln:
+            rated = True
+            out.extend(_rating_lines(ln, s))
+        for ch in ln["checks"]:
+            out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+        if ln.get("candidates"):
+            out.extend(_candidate_lines(ln, s))
+    if res.get("thermal"):
+        out.extend(_thermal_lines(res["thermal"], s))
+    if res.get("warnings"):
+        out.append("")
+        out.append("Warnings")
+        for w in res["warnings"]:
+            out.append(f"  {w['path']}: {w['message']}")
+    out.append("")
+    out.append("Methods: " + " ".join(res.get("methods", [])))
+    if rated:
+        out.append("")
+        out.append("Cautions")
+        out.extend(f"  - {c}" for c in CAUTIONS)
+    return "\n".join(out)

@@ -1,0 +1,10 @@
+"""Model: the declarations of a job and of a result, and the prepared (read-only) job.
+
+* ``schema``: the field-definition machinery (Field, Record, ListOf, Variants, validate);
+* ``job``: THE job model, every field with label, unit, default, limits and help, and
+  ``validate_job`` with the rules that span fields;
+* ``fluid``: a fluid record resolved from its preset and the user's values;
+* ``result``: THE result declaration, every key with kind, unit, nullability, label and help;
+* ``prepared``: ``prepare(job)``, the validated job with the part tables' data filled in,
+  frozen, that every stage reads and none edits.
+"""

@@ -1,0 +1,445 @@
+"""The job model: the one definition of a Linesmith job file.
+
+A job is a JSON document, ``"version": 1``. Every key that carries a physical
+quantity ends with its unit (``bore_mm``, ``relief_bar``). The engine converts
+to SI on entry. The validator (``validate_job``), the command line, the page's
+form (rendered at build time from ``describe_job()``) and the field reference in
+DEVELOPERS.md all read the declaration below; add a field here and it appears
+everywhere.
+
+Default operating points (used when a job gives no ``conditions``):
+
+=============  ==========  =============  =========  ===========
+name           engine_rpm  fluid_temp_c   full_lock  duty_percent
+=============  ==========  =============  =========  ===========
+cold start     900         -20            no         0
+hot idle       750         90             no         30
+highway        2500        80             no         65
+full lock hot  750         100            yes        5
+=============  ==========  =============  =========  ===========
+
+The engine speeds and temperatures are common practice for a passenger-car
+circuit (no single source); the duty shares are an invented typical mix for the
+steady-temperature estimate, to be replaced by the user's own.
+"""
+from __future__ import annotations
+
+import math
+
+from ..data.tables import fluid_presets
+from ..physics.fluid import NU_MAX_CST
+from .fluid import resolve_fluid, state_of
+from .schema import REQUIRED, Field, ListOf, Record, Variants, validate, Problem
+
+__all__ = ["JOB_VERSION", "JOB", "PART", "PORT", "LINE", "CONDITION", "DEFAULT_CONDITIONS", "FLUID_PRESETS",
+           "LINE_ROLES", "FITTING_SHAPES", "FITTING_FAMILIES", "TUBE_MATERIALS", "SEAL_TYPES", "describe_job",
+           "validate_job"]
+
+JOB_VERSION = 1
+
+FLUID_PRESETS = tuple(fluid_presets())
+LINE_ROLES = ("pressure", "return", "feed")
+FITTING_SHAPES = ("straight", "elbow-45", "elbow-90", "tee-run", "tee-branch", "banjo", "bulkhead")
+FITTING_FAMILIES = ("jic-37", "inverted-flare-45", "orb", "cone-24-l", "cone-24-s", "metric-oring-port",
+                    "banjo", "barb-clamp", "crimp-stem")
+TUBE_MATERIALS = ("steel-low-carbon", "stainless-304-annealed", "aluminium-6061-t6", "copper-nickel")
+SEAL_TYPES = ("flare-37", "flare-45", "cone-24", "oring-boss", "metric-oring", "crush-washer",
+              "pipe-taper", "hose-barb", "unknown")
+
+# -- scalar building blocks -----------------------------------------------------
+_name = Field("name", "Name", "text", default="", help="Free text shown on the report and build sheet.")
+
+
+def _bends() -> ListOf:
+    return ListOf("bends", "Bends", Record("bend", "Bend", (
+        Field("angle_deg", "Bend angle", unit="angle_deg", default=90.0, gt=0, le=360,
+              help="Angle turned by the flow, in degrees."),
+        Field("radius_mm", "Centre-line radius", unit="length_mm", default=REQUIRED, ge=0.5, le=5000,
+              help="Radius of the bend's centre line."),
+    )), default=[], max_items=50, help="Bends along this part; each adds a bend loss and is checked "
+                                        "against the part's minimum bend radius.")
+
+
+_rise = Field("rise_m", "Rise", unit="length_m", default=0.0, ge=-10, le=10,
+              help="Height gained from this part's inlet to its outlet (negative for a fall).")
+
+HOSE = Record("hose", "Hose", (
+    Field("class", "Hose class", "text", default=None,
+          help="A hose class from the part tables (for example 'SAE 100R2AT'); fills bore and ratings."),
+    Field("dash", "Dash size", "integer", default=None, gt=0, le=64,
+          help="Dash size: inside diameter in sixteenths of an inch (-6 = 3/8 in)."),
+    Field("bore_mm", "Bore", unit="length_mm", default=None, ge=0.5, le=100, warn_below=3, warn_above=40,
+          help="Inside diameter. Filled from the class and dash size when left empty."),
+    Field("length_m", "Length", unit="length_m", default=REQUIRED, ge=0.001, le=50, warn_above=10,
+          help="Flow length of the hose between fitting stems."),
+    Field("roughness_mm", "Wall roughness", unit="length_mm", default=0.005, ge=0, le=1,
+          help="Absolute roughness of the bore; 0.005 mm is typical of rubber hose (from memory)."),
+    _bends(), _rise,
+    Field("working_bar", "Rated working pressure", unit="pressure_bar", default=None, gt=0, le=2000,
+          help="From the maker's datasheet; overrides the class table."),
+    Field("burst_bar", "Minimum burst pressure", unit="pressure_bar", default=None, gt=0, le=10000,
+          help="From the maker's datasheet; overrides the class table."),
+    Field("min_bend_radius_mm", "Minimum bend radius", unit="length_mm", default=None, gt=0, le=5000,
+          help="From the maker's datasheet; overrides the class table."),
+    Field("max_temp_c", "Maximum fluid temperature", unit="temp_c", default=None, gt=-60, le=300,
+          help="From the maker's datasheet; overrides the class table."),
+    Field("wall_mm", "Hose wall thickness", unit="length_mm", default=None, gt=0, le=30,
+          help="For heat rejection through the wall; a typical value for the bore is used when empty."),
+))
+
+TUBE = Record("tube", "Rigid tube", (
+    Field("od_mm", "Outside diameter", unit="length_mm", default=REQUIRED, ge=1, le=100, warn_below=3,
+          help="Outside diameter of the tube (tube dash size = OD in sixteenths of an inch)."),
+    Field("wall_mm", "Wall thickness", unit="length_mm", default=REQUIRED, ge=0.05, le=20,
+          help="Wall thickness; must be less than half the outside diameter."),
+    Field("length_m", "Length", unit="length_m", default=REQUIRED, ge=0.001, le=50, warn_above=10,
+          help="Developed (straightened) length of the tube."),
+    Field("roughness_mm", "Wall roughness", unit="length_mm", default=0.0015, ge=0, le=1,
+          help="Absolute roughness; 0.0015 mm is the usual value for drawn tubing (from memory)."),
+    _bends(), _rise,
+    Field("material", "Material", "choice", default="steel-low-carbon", choices=TUBE_MATERIALS,
+          help="Tube material from the part table, for its minimum tensile strength."),
+    Field("tensile_mpa", "Minimum tensile strength", unit="stress_mpa", default=None, gt=0, le=3000,
+          help="Overrides the material table (from the tube maker's certificate)."),
+    Field("max_temp_c", "Maximum temperature", unit="temp_c", default=None, gt=-60, le=600,
+          help="Overrides the material table."),
+))
+
+FITTING = Record("fitting", "Fitting or adapter", (
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100, warn_below=2,
+          help="Smallest inside diameter of the fitting (the stem or the drilled passage)."),
+    Field("shape", "Shape", "choice", default="straight", choices=FITTING_SHAPES,
+          help="Flow path through the fitting, for its loss coefficient."),
+    Field("passage_length_mm", "Passage length", unit="length_mm", default=25.0, ge=0, le=1000,
+          help="Length of the narrow passage, for its friction (25 mm is a typical stem, from memory)."),
+    Field("family", "Family", "choice", default=None, choices=FITTING_FAMILIES,
+          help="End family, for the working pressure per size from the part table."),
+    Field("dash", "Size (dash)", "integer", default=None, gt=0, le=64,
+          help="Dash size of the end, for the family's rating table."),
+    Field("working_bar", "Rated working pressure", unit="pressure_bar", default=None, gt=0, le=2000,
+          help="From the maker's data; overrides the family table."),
+    Field("max_temp_c", "Maximum temperature", unit="temp_c", default=None, gt=-60, le=300,
+          help="Seal temperature limit; overrides the family table."),
+    Field("cutoff_mm", "Cut-off allowance", unit="length_mm", default=0.0, ge=0, le=500,
+          help="Length the fitting adds beyond the cut hose end, for the cut-length calculation."),
+    Field("end", "Assembly end", "choice", default="inline", choices=("start", "end", "inline"),
+          help="Whether this fitting terminates the hose assembly at its start or end."),
+    Field("orientation_deg", "Orientation", default=0.0, unit="angle_deg", ge=-360, le=360,
+          help="Clocking angle of an elbow relative to the other end, for the build sheet."),
+))
+
+DEVICE = Record("device", "Cooler or series device", (
+    Field("dp_bar", "Measured pressure drop", unit="pressure_bar", default=REQUIRED, ge=0, le=200,
+          help="Pressure drop measured across the device at the stated flow and viscosity."),
+    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
+          help="Flow at which the drop was measured."),
+    Field("at_visc_cst", "At viscosity", unit="viscosity_cst", default=None, ge=0.5, le=100000,
+          help="Viscosity at which the drop was measured; needed for the viscous scaling."),
+    Field("scaling", "Scaling with flow", "choice", default="inertial", choices=("viscous", "inertial"),
+          help="'viscous': drop proportional to viscosity x flow (laminar passages); 'inertial': drop "
+               "proportional to density x flow squared (valves and orifices)."),
+    Field("is_cooler", "Is a cooler", "bool", default=False,
+          help="Marks a heat exchanger; its heat rejection is set in the thermal section."),
+    Field("working_bar", "Rated working pressure", unit="pressure_bar", default=None, gt=0, le=2000,
+          help="From the maker's data, for the weakest-part check."),
+))
+
+ENTRANCE = Record("entrance", "Reservoir outlet (flow enters the line)", (
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100),
+    Field("edge", "Edge", "choice", default="sharp", choices=("sharp", "rounded", "projecting"),
+          help="Shape of the opening where fluid leaves the reservoir."),
+))
+
+EXIT = Record("exit", "Discharge into reservoir", (
+    Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100),
+))
+
+PART = Variants("part", "Part", "kind", {
+    "hose": HOSE, "tube": TUBE, "fitting": FITTING, "device": DEVICE,
+    "entrance": ENTRANCE, "exit": EXIT,
+}, help="One piece of a line, in flow order.")
+
+PORT = Record("port", "Port", (
+    Field("label", "Port", "text", default="", help="Where this end connects (pump outlet, gear inlet, ...)."),
+    Field("thread", "Port thread", "text", default=None,
+          help="Thread designation from the thread tables (for example '5/8-18 UNF' or 'M16x1.5')."),
+    Field("seal", "Port seal", "choice", default=None, choices=SEAL_TYPES,
+          help="How the port seals."),
+    Field("line_end_family", "Line end", "choice", default=None,
+          choices=("jic-37", "orb", "inverted-flare-45", "flare-45-sae", "cone-24-l", "cone-24-s",
+                   "metric-oring-port", "metric-washer-port", "bspp-port", "pipe-npt", "pipe-bspt", "banjo",
+                   "barb-clamp"),
+          help="End family of the hose or tube fitting that meets this port; the adapters between them are "
+               "planned from the thread tables."),
+    Field("line_end_dash", "Line end size (dash)", "integer", default=None, gt=0, le=64,
+          help="Dash size of the line end (inch families and hose barbs)."),
+    Field("line_end_tube_od_mm", "Line end tube outside diameter", unit="length_mm", default=None, gt=0, le=100,
+          help="Tube outside diameter of a 24 deg cone end (for example 10 for 10L)."),
+    Field("line_end_thread", "Line end thread", "text", default=None,
+          help="Thread of the line end, for metric studs, banjo bolts and pipe threads (for example 'M14x1.5')."),
+), default=None)
+
+LINE = Record("line", "Line", (
+    _name,
+    Field("role", "Role", "choice", default=REQUIRED, choices=LINE_ROLES,
+          help="pressure: pump to gear; return: gear to reservoir; feed: reservoir to pump inlet."),
+    ListOf("parts", "Parts", PART, default=REQUIRED, min_items=1, max_items=60,
+           help="The parts of the line in flow order. Only the parts listed are computed."),
+    Field("dp_budget_bar", "Pressure-drop budget", unit="pressure_bar", default=None, gt=0, le=500,
+          help="Largest acceptable pressure drop along this line, for hose selection."),
+    Field("engine_movement_mm", "Engine movement", unit="length_mm", default=0.0, ge=0, le=500,
+          help="Relative movement of the two ends on the engine mounts; needs slack in the hose."),
+    Field("overall_length_mm", "Overall assembly length", unit="length_mm", default=None, gt=0, le=50000,
+          help="Measured end-to-end length of the hose assembly, for the cut length."),
+    Field("route_points_mm", "Route points", "points", unit="length_mm", default=None,
+          help="Measured points [x, y, z] along the intended path from a datum of your choice."),
+    Record("from_port", "Start port", PORT.fields, default=None,
+           help="The port this line starts at."),
+    Record("to_port", "End port", PORT.fields, default=None,
+           help="The port this line ends at."),
+))
+
+CONDITION = Record("condition", "Operating point", (
+    _name,
+    Field("engine_rpm", "Engine speed", unit="speed_rpm", default=REQUIRED, ge=1, le=12000,
+          help="Crankshaft speed."),
+    Field("fluid_temp_c", "Fluid temperature", unit="temp_c", default=REQUIRED, ge=-50, le=200,
+          help="Bulk fluid temperature at this point."),
+    Field("full_lock", "Wheel held at full lock", "bool", default=False,
+          help="The gear is at the end of travel: the whole delivered flow crosses the relief."),
+    Field("duty_percent", "Share of time", unit="percent", default=0.0, ge=0, le=100,
+          help="Share of running time at this point, for the steady fluid temperature."),
+    Field("air_speed_m_s", "Air speed over lines", unit="speed_m_s", default=0.0, ge=0, le=60,
+          help="Air speed across the lines and cooler; 0 for still air (natural convection)."),
+))
+
+DEFAULT_CONDITIONS = [
+    {"name": "cold start", "engine_rpm": 900.0, "fluid_temp_c": -20.0, "full_lock": False,
+     "duty_percent": 0.0, "air_speed_m_s": 0.0},
+    {"name": "hot idle", "engine_rpm": 750.0, "fluid_temp_c": 90.0, "full_lock": False,
+     "duty_percent": 30.0, "air_speed_m_s": 0.5},
+    {"name": "highway", "engine_rpm": 2500.0, "fluid_temp_c": 80.0, "full_lock": False,
+     "duty_percent": 65.0, "air_speed_m_s": 5.0},
+    {"name": "full lock hot", "engine_rpm": 750.0, "fluid_temp_c": 100.0, "full_lock": True,
+     "duty_percent": 5.0, "air_speed_m_s": 0.5},
+]
+
+FLUID = Record("fluid", "Fluid", (
+    Field("preset", "Fluid", "choice", default=None, choices=FLUID_PRESETS + ("custom",),
+          help="A generic fluid from the presets, or 'custom' to give its datasheet values."),
+    _name,
+    Field("visc_40c_cst", "Viscosity at 40 C", unit="viscosity_cst", default=None, ge=2, le=10000,
+          help="Kinematic viscosity at 40 C from the datasheet."),
+    Field("visc_100c_cst", "Viscosity at 100 C", unit="viscosity_cst", default=None, ge=1, le=1000,
+          help="Kinematic viscosity at 100 C from the datasheet; must be lower than at 40 C."),
+    Field("density_15c_kg_m3", "Density at 15 C", unit="density_kg_m3", default=None, gt=500, le=1500),
+    Field("specific_heat_j_kgk", "Specific heat", unit="specific_heat_j_kgk", default=None, gt=500, le=5000),
+    Field("expansion_per_k", "Thermal expansion", unit="per_k", default=None, ge=0, le=0.005,
+          help="Volumetric expansion coefficient; 0.0007 /K is typical of mineral oil (from memory)."),
+    Field("conductivity_w_mk", "Thermal conductivity", unit="conductivity_w_mk", default=None, gt=0, le=1,
+          help="0.13 W/(m K) is typical of mineral oil (from memory)."),
+    Field("max_temp_c", "Fluid temperature limit", unit="temp_c", default=None, gt=0, le=250,
+          help="Highest continuous fluid temperature; the steady and full-lock checks use it."),
+))
+
+PUMP = Record("pump", "Pump and drive", (
+    Field("displacement_cc_rev", "Displacement", unit="displacement_cc", default=REQUIRED, ge=0.5, le=200,
+          warn_below=4, warn_above=40, help="Geometric displacement per pump revolution."),
+    Field("pulley_ratio", "Pulley ratio (pump : crank speed)", unit="ratio", default=1.0, ge=0.05, le=5,
+          help="Pump speed divided by crankshaft speed."),
+    Field("volumetric_efficiency", "Volumetric efficiency", unit="ratio", default=0.9, ge=0.05, le=1,
+          help="Delivered over geometric flow; 0.85-0.95 is typical of vane pumps (from memory)."),
+    Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
+          help="Most flow the flow-control valve lets out; the rest recirculates in the pump."),
+    Field("relief_bar", "Relief setting", unit="pressure_bar", default=REQUIRED, ge=1, le=500,
+          warn_above=200, help="Pressure at which the relief valve opens."),
+    Field("overall_efficiency", "Overall efficiency", unit="ratio", default=None, gt=0, le=1,
+          help="If given, the pump's own losses are added to the heat load."),
+))
+
+GEAR = Record("gear", "Steering gear", (
+    Field("neutral_drop_bar", "Valve drop at neutral", unit="pressure_bar", default=REQUIRED, ge=0, le=100,
+          help="Pressure drop across the open-centre valve with no steering input, at the stated flow."),
+    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.5, le=500,
+          help="Flow at which the neutral drop was measured; other flows scale as flow squared "
+               "(orifice flow, stated assumption)."),
+))
+
+RATINGS = Record("ratings", "Rating settings", (
+    Field("surge_percent", "Surge allowance over relief", unit="percent", default=25.0, ge=0, le=200,
+          help="Pressure lines must hold the relief setting plus this allowance for spikes when the "
+               "relief cracks late (25 % is common practice, no single source)."),
+    Field("hose_design_factor", "Hose design factor (burst : working)", unit="ratio", default=4.0, ge=1, le=10,
+          help="SAE J517 rates hydraulic hose at a quarter of its minimum burst pressure (4:1)."),
+    Field("tube_design_factor", "Tube design factor (burst : working)", unit="ratio", default=4.0, ge=1,
+          le=10, help="4:1 on minimum tensile burst is the usual basis of tube pressure tables "
+                      "(from memory of SAE J1065)."),
+    Field("length_change_plus_percent", "Hose growth under pressure", unit="percent", default=2.0, ge=0, le=20,
+          help="+2 % is the SAE J517 allowance (from memory)."),
+    Field("length_change_minus_percent", "Hose shrink under pressure", unit="percent", default=4.0, ge=0,
+          le=20, help="-4 % is the SAE J517 allowance (from memory)."),
+), default={})
+
+COOLER = Record("cooler", "Cooler", (
+    Field("type", "Cooler", "choice", default="none", choices=("none", "rating", "tube"),
+          help="'rating': a cooler given by its W/K; 'tube': a length of plain or finned tube in the air."),
+    Field("w_per_k", "Cooler rating", unit="conductance_w_k", default=None, gt=0, le=10000,
+          help="Heat rejected per kelvin of fluid-to-air temperature difference."),
+    Field("tube_od_mm", "Cooler tube outside diameter", unit="length_mm", default=9.53, gt=0, le=100),
+    Field("tube_wall_mm", "Cooler tube wall", unit="length_mm", default=0.89, gt=0, le=10),
+    Field("tube_length_m", "Cooler tube length", unit="length_m", default=None, gt=0, le=100),
+    Field("fins_per_inch", "Fins per inch", unit="count", default=0.0, ge=0, le=40,
+          help="0 for plain tube."),
+    Field("fin_od_mm", "Fin outside diameter", unit="length_mm", default=None, gt=0, le=200),
+    Field("fin_thickness_mm", "Fin thickness", unit="length_mm", default=0.4, gt=0, le=5,
+          help="0.3-0.5 mm is typical of wound or pressed aluminium fins (from memory)."),
+    Field("fin_conductivity_w_mk", "Fin conductivity", unit="conductivity_w_mk", default=200.0, gt=0,
+          le=500, help="About 200 W/(m K) for aluminium (from memory)."),
+    Field("tube_conductivity_w_mk", "Cooler tube wall conductivity", unit="conductivity_w_mk", default=50.0,
+          gt=0, le=500, help="About 50 W/(m K) for low-carbon steel, 160-200 for aluminium (from memory)."),
+    Field("air_speed_m_s", "Air speed through the cooler", unit="speed_m_s", default=None, ge=0, le=60,
+          help="Leave empty to use each condition's air speed."),
+), default={})
+
+THERMAL = Record("thermal", "Thermal settings", (
+    Field("air_temp_c", "Under-hood air temperature", unit="temp_c", default=50.0, ge=-50, le=150,
+          help="Air around the lines and the reservoir."),
+    Field("limit_margin_c", "Margin below the fluid limit", unit="temp_diff_c", default=10.0, ge=0, le=100,
+          help="The steady temperature should stay this far below the fluid's limit."),
+    Field("reservoir_area_m2", "Reservoir wetted surface", unit="area_m2", default=0.04, ge=0, le=10,
+          help="Outer surface of the reservoir in contact with fluid."),
+    Field("reservoir_h_w_m2k", "Reservoir film coefficient", unit="film_w_m2k", default=10.0, gt=0, le=500,
+          help="Overall coefficient of the reservoir surface; 5-15 W/(m2 K) for still air (from memory)."),
+    Field("other_volume_l", "Fluid in pump, gear and reservoir", unit="volume_l", default=0.8, ge=0, le=100,
+          help="Fluid volume outside the listed lines, for the full-lock warm-up."),
+    Field("hose_conductivity_w_mk", "Hose wall conductivity", unit="conductivity_w_mk", default=0.25, gt=0,
+          le=50, help="Rubber hose wall; about 0.2-0.3 W/(m K) (from memory)."),
+    Field("full_lock_hold_s", "Longest full-lock hold to show", unit="time_s", default=600.0, gt=0,
+          le=36000),
+    COOLER,
+), default={})
+
+JOB = Record("job", "Job", (
+    Field("version", "File version", "integer", default=REQUIRED, ge=1, le=1,
+          help="Job file format version; this build reads version 1."),
+    _name,
+    Field("notes", "Notes", "text", default="", max_length=5000),
+    FLUID, PUMP, GEAR,
+    ListOf("conditions", "Operating points", CONDITION, default=DEFAULT_CONDITIONS, min_items=1,
+           max_items=24, help="Operating points at which every line is computed."),
+    ListOf("lines", "Lines", LINE, default=REQUIRED, min_items=1, max_items=12),
+    RATINGS, THERMAL,
+))
+
+
+def describe_job() -> dict:
+    """The job model as JSON: every field with label, unit kind, default, limits and help."""
+    presets = fluid_presets()
+    return {"version": JOB_VERSION, "job": JOB.describe(), "default_conditions": DEFAULT_CONDITIONS,
+            "fluid_presets": list(FLUID_PRESETS),
+            "fluid_preset_values": {k: {f: v for f, v in presets[k].items() if f not in ("name", "source")}
+                                    for k in FLUID_PRESETS}}
+
+
+def validate_job(job) -> tuple[dict | None, list[Problem], list[Problem]]:
+    """Validate a job and fill its defaults.
+
+    Checks the structure against ``JOB``, then the rules that span fields
+    (a fluid either names a preset or gives its datasheet values; a tube wall
+    under half its diameter; duty shares adding to 100 %; ...).
+
+    Returns ``(normalised_job, problems, warnings)``; ``normalised_job`` is
+    ``None`` when there are problems.
+
+    Examples
+    --------
+    >>> _, problems, _ = validate_job({"version": 1})
+    >>> [str(p) for p in problems][:2]
+    ['fluid: is missing', 'pump: is missing']
+    """
+    if isinstance(job, dict) and "version" in job and job["version"] != JOB_VERSION \
+            and isinstance(job["version"], int) and not isinstance(job["version"], bool):
+        return None, [Problem("version", f"this build reads job files of version {JOB_VERSION}, "
+                                         f"not {job['version']}")], []
+    out, problems, warnings = validate(JOB, job)
+    if not problems:
+        _cross_checks(out, problems, warnings)
+    return (None if problems else out), problems, warnings
+
+
+def _cross_checks(job: dict, problems: list, warnings: list) -> None:
+    """The rules that span fields; ``job["fluid"]`` is replaced by its resolved record."""
+    _fluid_checks(job, problems)
+    if sum(1 for ln in job["lines"] if ln["role"] == "pressure") == 0:
+        warnings.append(Problem("lines", "no pressure line listed: the circuit pressure at neutral is "
+                                         "only the gear and return losses"))
+    for i, ln in enumerate(job["lines"]):
+        _line_checks(i, ln, problems)
+    duty = [c["duty_percent"] for c in job["conditions"]]
+    total = sum(duty)
+    if total > 0 and abs(total - 100.0) > 0.01:
+        problems.append(Problem("conditions", f"the shares of time (duty_percent) add up to {total:g} %, "
+                                              "not 100 %"))
+    _cooler_checks(job["thermal"]["cooler"], problems)
+
+
+def _fluid_checks(job: dict, problems: list) -> None:
+    fl = job["fluid"]
+    if fl["preset"] in (None, "custom"):
+        for k in ("visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk"):
+            if fl[k] is None:
+                problems.append(Problem(f"fluid.{k}", "is missing (give it, or choose a preset)"))
+    if fl["visc_40c_cst"] is not None and fl["visc_100c_cst"] is not None:
+        if fl["visc_100c_cst"] >= fl["visc_40c_cst"]:
+            problems.append(Problem("fluid.visc_100c_cst", "must be lower than the viscosity at 40 C"))
+    if problems:
+        return
+    job["fluid"] = resolve_fluid(fl)
+    for i, c in enumerate(job["conditions"]):
+        try:
+            nu = state_of(job["fluid"], c["fluid_temp_c"]).nu_m2_s * 1e6
+        except ValueError:
+            nu = math.inf
+        if nu > NU_MAX_CST:
+            problems.append(Problem(f"conditions[{i}].fluid_temp_c",
+                                    f"the fluid's viscosity at {c['fluid_temp_c']:g} C would be above "
+                                    f"{NU_MAX_CST:,.0f} cSt: it would not flow (check the "
+                                    "fluid's datasheet values)"))
+
+
+def _line_checks(i: int, ln: dict, problems: list) -> None:
+    for k, p in enumerate(ln["parts"]):
+        path = f"lines[{i}].parts[{k}]"
+        if p["kind"] == "tube" and p["wall_mm"] * 2 >= p["od_mm"]:
+            problems.append(Problem(f"{path}.wall_mm", "must be less than half the outside diameter"))
+        if p["kind"] == "hose" and p["bore_mm"] is None and (p["class"] is None or p["dash"] is None):
+            problems.append(Problem(f"{path}.bore_mm", "is missing (give a bore, or a hose class and "
+                                                       "dash size)"))
+        if p["kind"] == "device" and p["scaling"] == "viscous" and p["at_visc_cst"] is None:
+            problems.append(Problem(f"{path}.at_visc_cst", "is missing (viscous scaling needs the "
+                                                           "viscosity at which the drop was measured)"))
+        if p["kind"] == "fitting" and p["family"] == "barb-clamp" and ln["role"] == "pressure":
+            problems.append(Problem(f"{path}.family", "a barbed nipple with a clamp must not be used "
+                                                      "on a pressure line; use a crimped or "
+                                                      "reusable pressure fitting"))
+    if ln["route_points_mm"] is not None and len(ln["route_points_mm"]) == 1:
+        problems.append(Problem(f"lines[{i}].route_points_mm", "needs at least two points"))
+
+
+def _cooler_checks(cooler: dict, problems: list) -> None:
+    if cooler["type"] == "rating" and cooler["w_per_k"] is None:
+        problems.append(Problem("thermal.cooler.w_per_k", "is missing (the cooler type is 'rating')"))
+    if cooler["type"] == "tube" and cooler["tube_length_m"] is None:
+        problems.append(Problem("thermal.cooler.tube_length_m", "is missing (the cooler type is 'tube')"))
+    if cooler["type"] == "tube" and cooler["tube_wall_mm"] * 2 >= cooler["tube_od_mm"]:
+        problems.append(Problem("thermal.cooler.tube_wall_mm", "must be less than half the outside diameter"))
+    if cooler["fins_per_inch"] > 0:
+        if cooler["fin_od_mm"] is None:
+            problems.append(Problem("thermal.cooler.fin_od_mm", "is missing (fins_per_inch is more than 0)"))
+        elif cooler["fin_od_mm"] <= cooler["tube_od_mm"]:
+            problems.append(Problem("thermal.cooler.fin_od_mm", "must be larger than the tube outside "
+                                                                "diameter"))
+        if cooler["fin_thickness_mm"] * cooler["fins_per_inch"] >= 25.4:
+            problems.append(Problem("thermal.cooler.fin_thickness_mm", "the fins would fill the tube: fin "
+                                                                       "thickness x fins per inch must be "
+                                                                       "under 25.4 mm"))

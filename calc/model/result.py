@@ -1,0 +1,407 @@
+"""The result declaration: every key of an ``evaluate`` result, with its kind, unit, label and help.
+
+Declared once, in the style of the job model. The unit conversion at the edges (numbers
+by their unit, the figures inside sentences), the text report and the page's result
+tables read it; ``python -m calc describe --result`` prints it; a test fails on any
+result key it lacks.
+
+Kinds:
+
+* ``number``: a float in the engine's unit (``unit`` is a key of the unit table);
+* ``count``: a whole number (an index counts from 0 in the engine's lists);
+* ``flag``: true or false;
+* ``text``: words that are never converted: the user's own names, table names, codes;
+* ``sentence``: the engine's own words with figures in engine units (converted at the edges);
+* ``verdict``: 'ok', 'caution' or 'fail';
+* ``path``: a field path in the validator's syntax (``lines[0].parts[1].bore_mm``);
+* ``list``: a list, its items declared at ``key[]``;
+* ``map``: an object, its keys declared below it.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+__all__ = ["KINDS", "VERDICTS", "Out", "RESULT", "describe_result", "result_fields", "field_at", "check",
+           "worst_verdict"]
+
+KINDS = ("number", "count", "flag", "text", "sentence", "verdict", "path", "list", "map")
+VERDICTS = ("ok", "caution", "fail")
+
+
+@dataclass(frozen=True)
+class Out:
+    """One key of a result: a scalar, a map (``fields``) or a list (``item``)."""
+
+    key: str
+    kind: str
+    label: str
+    unit: str | None = None
+    nullable: bool = False
+    help: str = ""
+    fields: tuple = ()
+    item: "Out | None" = None
+
+
+def num(key, unit, label, help="", nullable=False):
+    return Out(key, "number", label, unit, nullable, help)
+
+
+def cnt(key, label, help="", nullable=False):
+    return Out(key, "count", label, "count", nullable, help)
+
+
+def flag(key, label, help=""):
+    return Out(key, "flag", label, None, False, help)
+
+
+def text(key, label, help="", nullable=False):
+    return Out(key, "text", label, None, nullable, help)
+
+
+def sentence(key, label, help="", nullable=False):
+    return Out(key, "sentence", label, None, nullable, help)
+
+
+def rec(key, label, fields, help="", nullable=False):
+    return Out(key, "map", label, None, nullable, help, tuple(fields))
+
+
+def lst(key, label, item, help="", nullable=False):
+    return Out(key, "list", label, None, nullable, help, (), item)
+
+
+def check(name: str, verdict: str, message: str) -> dict:
+    """A check of the result: ``{"check", "verdict", "message"}`` (see ``CHECK``).
+
+    Examples
+    --------
+    >>> check("velocity", "ok", "within the band")
+    {'check': 'velocity', 'verdict': 'ok', 'message': 'within the band'}
+    """
+    return {"check": name, "verdict": verdict, "message": message}
+
+
+def worst_verdict(checks) -> str:
+    """The worst verdict of a list of checks ('ok' for none).
+
+    Examples
+    --------
+    >>> worst_verdict([check("a", "ok", ""), check("b", "caution", "")])
+    'caution'
+    """
+    order = {v: i for i, v in enumerate(VERDICTS)}
+    return max((c["verdict"] for c in checks), key=order.__getitem__, default="ok")
+
+
+CHECK = (text("check", "Check", "What is checked (velocity, pressure, burst, ...)."),
+         Out("verdict", "verdict", "Verdict", help="ok, caution or fail."),
+         sentence("message", "Finding", "What was found and, where something does not pass, what to change."))
+CHECKS = lst("checks", "Checks", rec("", "Check", CHECK))
+
+# -- per operating point ---------------------------------------------------------------------
+PART_FLOW = (
+    cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
+    cnt("job_part", "Part", "Position in the user's own parts list, from 0; null for a planned adapter.", True),
+    text("adapter", "Adapter", "For an adapter the port plan added: its port and name.", True),
+    text("kind", "Kind", "hose, tube, fitting, device, entrance or exit."),
+    num("velocity_m_s", "speed_m_s", "Velocity", "Mean velocity in the part's bore."),
+    num("reynolds", "dimensionless", "Reynolds number", "Reynolds number in the part's bore; 0 without flow."),
+    text("regime", "Regime", "laminar, transitional (Re 2000-4000), turbulent, device or no flow."),
+    num("friction_factor", "dimensionless", "Darcy friction factor"),
+    num("k_minor", "dimensionless", "Minor-loss coefficient", "Sum of the part's K on its own velocity head."),
+    num("pressure_drop_bar", "pressure_bar", "Pressure drop", "Drop across the part, elevation included."),
+    num("friction_bar", "pressure_bar", "Friction drop"),
+    num("minor_bar", "pressure_bar", "Minor-loss drop"),
+    num("transition_bar", "pressure_bar", "Bore-change drop", "Loss of the change of bore at the part's inlet."),
+    num("elevation_bar", "pressure_bar", "Elevation drop"),
+    num("temp_rise_c", "temp_diff_c", "Temperature rise", "Throttling heat, dp / (rho cp), elevation excluded."),
+)
+LINE_FLOW = (
+    cnt("index", "Line", "Position in the user's list of lines, from 0."),
+    text("name", "Line name", "The user's name, or 'line N'."),
+    text("role", "Role", "pressure, return or feed."),
+    num("flow_lpm", "flow_lpm", "Flow"),
+    num("velocity_max_m_s", "speed_m_s", "Highest velocity", "Fastest part of the line (fittings included)."),
+    num("reynolds_min", "dimensionless", "Lowest Reynolds number"),
+    num("reynolds_max", "dimensionless", "Highest Reynolds number"),
+    num("pressure_drop_bar", "pressure_bar", "Pressure drop", "Inlet to outlet, elevation included."),
+    num("inlet_bar", "pressure_bar", "Inlet pressure", "Gauge."),
+    num("outlet_bar", "pressure_bar", "Outlet pressure", "Gauge."),
+    num("temp_rise_c", "temp_diff_c", "Temperature rise", "Throttling heat along the line, elevation excluded."),
+    flag("transitional", "Transitional flow", "Some part runs in the laminar-turbulent band."),
+    lst("parts", "Parts", rec("", "Part", PART_FLOW)),
+    lst("nodes", "Node pressures", rec("", "Node", (
+        cnt("after_part", "After part", "Place in the line after which the pressure is taken; -1 at the inlet."),
+        num("pressure_bar", "pressure_bar", "Pressure", "Gauge.")))),
+)
+REJECTED = (
+    num("lines_w", "power_w", "By the lines"),
+    num("reservoir_w", "power_w", "By the reservoir"),
+    num("cooler_w", "power_w", "By the cooler"),
+    num("total_w", "power_w", "Heat rejected"),
+    lst("parts", "Per line part", rec("", "Part", (
+        cnt("line", "Line", "Position in the user's list of lines, from 0."),
+        cnt("part", "Place in the line", "Position in the line as built, from 0."),
+        num("ua_w_k", "conductance_w_k", "Conductance to the air"),
+        num("heat_w", "power_w", "Heat rejected"),
+        num("surface_temp_c", "temp_c", "Outer surface temperature"),
+        num("outside_mm", "length_mm", "Outside diameter")))),
+)
+CONDITION = (
+    text("name", "Operating point", "The user's name of the operating point."),
+    num("engine_rpm", "speed_rpm", "Engine speed"),
+    num("fluid_temp_c", "temp_c", "Fluid temperature"),
+    flag("full_lock", "Wheel at full lock"),
+    num("viscosity_cst", "viscosity_cst", "Viscosity"),
+    num("density_kg_m3", "density_kg_m3", "Density"),
+    num("pump_flow_lpm", "flow_lpm", "Pump flow", "Delivered, after the flow control."),
+    num("pump_flow_uncapped_lpm", "flow_lpm", "Pump flow before the flow control"),
+    flag("flow_control_limiting", "Flow control limiting"),
+    num("circuit_flow_lpm", "flow_lpm", "Circuit flow", "Flow through the lines (less what crosses the relief)."),
+    num("relief_flow_lpm", "flow_lpm", "Flow over the relief"),
+    flag("relief_open", "Relief valve open"),
+    num("pump_outlet_bar", "pressure_bar", "Pump outlet pressure", "Gauge."),
+    num("gear_drop_bar", "pressure_bar", "Gear valve drop"),
+    num("gear_outlet_bar", "pressure_bar", "Gear outlet pressure", "Gauge."),
+    num("pump_inlet_bar", "pressure_bar", "Pump inlet pressure", "Gauge."),
+    flag("has_feed_line", "Feed line listed"),
+    lst("lines", "Lines", rec("", "Line", LINE_FLOW)),
+    num("heat_w", "power_w", "Heat generated", "Hydraulic heat plus the pump's losses."),
+    num("heat_hydraulic_w", "power_w", "Hydraulic heat"),
+    num("heat_pump_loss_w", "power_w", "Pump losses"),
+    num("heat_rejected_w", "power_w", "Heat rejected", "At this point's own temperature; negative when the "
+                                                       "air warms the fluid."),
+    rec("heat_rejected_detail", "Heat rejected, by surface", REJECTED),
+)
+
+# -- per line ------------------------------------------------------------------------------
+ADAPTER = (
+    sentence("name", "Adapter", "What it joins: the port's thread and seal to the line end's family and size."),
+    rec("from", "Port side", (text("thread", "Thread"), text("seal", "Seal"), text("gender", "Gender"))),
+    rec("to", "Line side", (text("family", "End family"), text("size", "Size"), text("thread", "Thread", nullable=True),
+                            text("seal", "Seal"), text("gender", "Gender"))),
+    num("working_bar", "pressure_bar", "Working pressure", "Lower of its two ends' typical ratings; null when "
+                                                           "the tables hold none.", True),
+    num("bore_mm", "length_mm", "Bore", "Smaller of its two ends' typical bores."),
+    text("family", "Rated as family", "The end family whose rating is the adapter's.", True),
+    cnt("dash", "Rated as size", "Dash size of that end.", True),
+    text("source", "Source", "Where the rating and bore come from."),
+)
+PORT_PLAN = (
+    flag("ok", "Seals", "Whether the joint can be made to seal."),
+    lst("adapters", "Adapters", rec("", "Adapter", ADAPTER), "Empty when the line end fits the port directly."),
+    sentence("message", "Plan", "The plan in words, or why the joint cannot seal."),
+)
+LINE_PART = (
+    cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
+    cnt("job_part", "Part", "Position in the user's own parts list, from 0; null for a planned adapter.", True),
+    text("adapter", "Adapter", "For an adapter the port plan added: its port and name.", True),
+    text("kind", "Kind", "hose, tube, fitting, device, entrance or exit."),
+    num("size_mm", "length_mm", "Size", "The part's size: a tube's outside diameter, otherwise its bore; null "
+                                       "for a device.", True),
+    cnt("dash", "Dash size", "Nearest dash size of that size, in sixteenths of an inch; null for a device.", True),
+    flag("dash_exact", "On a dash size", "Whether the size is within 0.15/16 in of that dash size."),
+)
+PART_RATING = (
+    cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
+    text("kind", "Kind"),
+    sentence("description", "Part", "The part in words (class and size, or bore)."),
+    num("working_bar", "pressure_bar", "Working pressure", "Null when no rating is known.", True),
+    num("burst_bar", "pressure_bar", "Burst pressure", nullable=True),
+    num("design_factor", "ratio", "Design factor (burst : working)"),
+    num("max_temp_c", "temp_c", "Highest temperature", nullable=True),
+    num("min_temp_c", "temp_c", "Lowest temperature", nullable=True),
+    num("min_bend_radius_mm", "length_mm", "Minimum bend radius", nullable=True),
+    text("source", "Source of the rating", nullable=True),
+    lst("notes", "Notes", sentence("", "Note")),
+    num("barlow_burst_bar", "pressure_bar", "Burst by Barlow", "Tubes only."),
+    num("lame_burst_bar", "pressure_bar", "Burst by Lame", "Tubes only."),
+    num("tensile_mpa", "stress_mpa", "Tensile strength used", "Tubes only (derated where the table says)."),
+)
+ROUTE = (
+    num("length_mm", "length_mm", "Route length", "Polyline through the measured points."),
+    num("straight_mm", "length_mm", "End to end"),
+    num("length_filleted_mm", "length_mm", "Shortest smooth path", "Every corner rounded at its largest radius."),
+    lst("bends", "Bends the route forces", rec("", "Bend", (
+        cnt("at_point", "At point", "Position in the measured points, from 0."),
+        num("angle_deg", "angle_deg", "Angle turned"),
+        num("max_radius_mm", "length_mm", "Largest radius the route leaves room for")))),
+    num("tightest_radius_mm", "length_mm", "Tightest forced radius", "Null for a straight route.", True),
+    num("total_turn_deg", "angle_deg", "Total turn"),
+    sentence("method", "Method"),
+)
+RATING = (
+    num("working_bar", "pressure_bar", "Assembly working pressure", "The weakest rated part's.", True),
+    num("burst_bar", "pressure_bar", "Assembly burst pressure", "The lowest known burst.", True),
+    num("design_factor", "ratio", "Design factor (burst : working)"),
+    num("required_bar", "pressure_bar", "Must hold"),
+    sentence("required_basis", "Basis of the pressure to hold"),
+    num("margin", "ratio", "Working margin (working / must hold)", "Null near atmospheric or when unrated.", True),
+    num("burst_margin", "ratio", "Burst margin (burst / must hold)", nullable=True),
+    rec("weakest_part", "Weakest part", (
+        cnt("index", "Place in the line"), text("kind", "Kind"), sentence("description", "Part"),
+        num("working_bar", "pressure_bar", "Working pressure")), nullable=True),
+    lst("unrated_parts", "Parts with no rating", cnt("", "Place in the line")),
+    num("temp_max_c", "temp_c", "Highest fluid temperature"),
+    num("temp_min_c", "temp_c", "Lowest fluid temperature"),
+    num("pressure_min_bar", "pressure_bar", "Lowest pressure in the line", "Gauge."),
+    num("dp_budget_bar", "pressure_bar", "Pressure-drop budget", nullable=True),
+    lst("parts", "Part ratings", rec("", "Part rating", PART_RATING)),
+    rec("route", "Route", ROUTE, "From the measured route points; null without them.", nullable=True),
+)
+CANDIDATE = (
+    text("class", "Hose class"),
+    cnt("dash", "Dash size"),
+    num("bore_mm", "length_mm", "Bore"),
+    Out("verdict", "verdict", "Verdict"),
+    lst("failed", "Failed checks", text("", "Check")),
+    lst("reasons", "Why", sentence("", "Reason")),
+    num("velocity_max_m_s", "speed_m_s", "Highest velocity in the hose"),
+    num("pressure_drop_bar", "pressure_bar", "Largest drop"),
+    num("working_bar", "pressure_bar", "Working pressure"),
+    num("min_bend_radius_mm", "length_mm", "Minimum bend radius"),
+    cnt("light_rank", "Construction rank", "1 = lightest construction (textile braid) to 4 (two wire braids)."),
+    text("source", "Source"),
+)
+LINE = (
+    cnt("index", "Line", "Position in the user's list of lines, from 0."),
+    text("name", "Line name"),
+    text("role", "Role"),
+    Out("verdict", "verdict", "Verdict", help="The worst verdict of the line's checks."),
+    num("pressure_drop_max_bar", "pressure_bar", "Largest drop", "The line's largest pressure drop over the "
+                                                                  "operating points."),
+    text("pressure_drop_max_at", "Largest drop at", "The operating point of the largest drop."),
+    CHECKS,
+    rec("ports", "Ports", (rec("from_port", "Start port", PORT_PLAN, "Null when the start port names no line end.",
+                               nullable=True),
+                           rec("to_port", "End port", PORT_PLAN, "Null when the end port names no line end.",
+                               nullable=True))),
+    lst("parts", "Parts as built", rec("", "Part", LINE_PART)),
+    rec("rating", "Rating", RATING),
+    lst("candidates", "Hose candidates", rec("", "Candidate", CANDIDATE),
+        "Every tabulated hose class and size recomputed for the line, passing ones first."),
+)
+
+# -- thermal ---------------------------------------------------------------------------------
+THERMAL = (
+    num("limit_c", "temp_c", "Temperature limit"),
+    sentence("limit_basis", "Basis of the limit"),
+    num("target_c", "temp_c", "Target temperature", "The limit less the margin."),
+    num("margin_c", "temp_diff_c", "Margin below the limit"),
+    num("air_temp_c", "temp_c", "Under-hood air"),
+    lst("method", "Method", sentence("", "Method")),
+    lst("hose_wall_defaulted", "Hose walls not given", Out("", "path", "Field")),
+    rec("steady", "Steady-temperature solve", (
+        text("status", "Status", "converged, no heat, none below, not converged, failed or no duty cycle."),
+        num("temp_c", "temp_c", "Temperature", nullable=True),
+        cnt("iterations", "Evaluations"),
+        sentence("message", "Message"))),
+    num("steady_heat_w", "power_w", "Heat generated (duty-weighted)"),
+    num("steady_rejected_w", "power_w", "Heat rejected (duty-weighted)"),
+    lst("steady_duty", "Per operating point at the steady temperature", rec("", "Operating point", (
+        text("name", "Operating point"), num("duty_percent", "percent", "Share of time"),
+        num("heat_w", "power_w", "Heat generated"), num("heat_rejected_w", "power_w", "Heat rejected"),
+        num("lines_w", "power_w", "By the lines"), num("reservoir_w", "power_w", "By the reservoir"),
+        num("cooler_w", "power_w", "By the cooler")))),
+    num("steady_temp_c", "temp_c", "Steady temperature", "Null when there is none.", True),
+    rec("full_lock", "Full-lock hold", (
+        sentence("condition", "Operating point used"),
+        num("start_temp_c", "temp_c", "Starting temperature"),
+        sentence("start_from", "Starting from"),
+        num("heat_w", "power_w", "Heat at full lock"),
+        num("volume_l", "volume_l", "Fluid volume heated"),
+        num("heat_capacity_j_k", "heat_capacity_j_k", "Heat capacity"),
+        num("levels_off_c", "temp_c", "Levels off near", nullable=True),
+        sentence("message", "Finding"),
+        sentence("curve_note", "Curve note"))),
+    num("full_lock_seconds_to_limit", "time_s", "Time at full lock to the limit", "Null when not reached.", True),
+    lst("full_lock_curve", "Full-lock curve", rec("", "Point", (num("t_s", "time_s", "Time held"),
+                                                              num("temp_c", "temp_c", "Fluid temperature")))),
+    num("cooler_needed_w_per_k", "conductance_w_k", "Cooler needed", "0: none needed; null: none can help.", True),
+    num("cooler_needed_tube_m", "length_m", "Cooler tube needed", nullable=True),
+    rec("cooler_tube", "Cooler tube used for the advice", (
+        num("od_mm", "length_mm", "Outside diameter"), num("wall_mm", "length_mm", "Wall"),
+        num("fins_per_inch", "count", "Fins per inch"),
+        num("fin_od_mm", "length_mm", "Fin outside diameter", nullable=True))),
+    sentence("cooler_message", "Cooler advice"),
+    CHECKS,
+    Out("verdict", "verdict", "Verdict"),
+    sentence("message", "Finding"),
+)
+
+FLUID = (
+    text("name", "Fluid"), text("preset", "Preset", nullable=True),
+    num("visc_40c_cst", "viscosity_cst", "Viscosity at 40 C"), num("visc_100c_cst", "viscosity_cst", "Viscosity at 100 C"),
+    num("density_15c_kg_m3", "density_kg_m3", "Density at 15 C"),
+    num("specific_heat_j_kgk", "specific_heat_j_kgk", "Specific heat"),
+    num("max_temp_c", "temp_c", "Fluid temperature limit"), text("source", "Source of the values"),
+)
+PUMP_CURVE = (
+    num("flow_limit_lpm", "flow_lpm", "Flow-control setting"),
+    lst("points", "Delivered flow against engine speed", rec("", "Point", (
+        num("engine_rpm", "speed_rpm", "Engine speed"),
+        num("delivered_lpm", "flow_lpm", "Delivered flow")))),
+)
+
+RESULT = rec("", "Result", (
+    flag("ok", "Computed"),
+    text("job_name", "Job"),
+    rec("fluid", "Fluid", FLUID),
+    lst("conditions", "Operating points", rec("", "Operating point", CONDITION)),
+    lst("lines", "Lines", rec("", "Line", LINE)),
+    rec("thermal", "Fluid temperature", THERMAL),
+    lst("warnings", "Warnings", rec("", "Warning", (Out("path", "path", "Field"), sentence("message", "Warning")))),
+    lst("methods", "Methods", sentence("", "Method")),
+    rec("pump_curve", "Pump delivery", PUMP_CURVE, "For the plot of delivered flow against engine speed."),
+))
+
+
+def _walk(decl: Out, path: str, out: list) -> None:
+    if path:
+        out.append(decl if decl.key == path else Out(path, decl.kind, decl.label, decl.unit, decl.nullable,
+                                                     decl.help, decl.fields, decl.item))
+    if decl.kind == "map":
+        for f in decl.fields:
+            _walk(f, f"{path}.{f.key}" if path else f.key, out)
+    elif decl.kind == "list":
+        item = decl.item
+        if item.kind == "map":
+            for f in item.fields:
+                _walk(f, f"{path}[].{f.key}", out)
+        else:
+            _walk(item, f"{path}[]", out)
+
+
+def result_fields() -> list[Out]:
+    """Every declared key as an ``Out`` whose ``key`` is its full path (``conditions[].lines[].flow_lpm``)."""
+    out: list[Out] = []
+    _walk(RESULT, "", out)
+    return out
+
+
+_BY_PATH: dict = {}
+
+
+def field_at(path: str) -> Out | None:
+    """The declaration of a result path, or None.
+
+    Examples
+    --------
+    >>> field_at("conditions[].lines[].parts[].velocity_m_s").unit
+    'speed_m_s'
+    """
+    if not _BY_PATH:
+        _BY_PATH.update((f.key, f) for f in result_fields())
+    return _BY_PATH.get(path)
+
+
+def describe_result() -> list[dict]:
+    """The result declaration as JSON rows ``{path, kind, unit, nullable, label, help}``.
+
+    Examples
+    --------
+    >>> [r for r in describe_result() if r["path"] == "lines[].checks[].message"][0]["kind"]
+    'sentence'
+    """
+    return [{"path": f.key, "kind": f.kind, "unit": f.unit, "nullable": f.nullable, "label": f.label,
+             "help": f.help} for f in result_fields()]

@@ -1,0 +1,176 @@
+"""The pipeline: prepare the job, run the stages in order, assemble the result.
+
+``evaluate(job)`` is the engine's one entry point: JSON-shaped dict in, JSON-shaped dict out,
+no I/O. The result's shape is declared once, in ``calc.model.result``.
+"""
+from __future__ import annotations
+
+from .model.prepared import prepare
+from .model.result import worst_verdict
+from .physics.sizes import dash_of_mm
+from .stages.circuit import circuit_stage
+from .stages.ports import ports_stage
+from .stages.ratings import ratings_stage
+from .stages.selection import selection_stage
+from .stages.thermal import thermal_stage
+from .system.circuit import Circuit
+from .system.line import part_bore_mm
+
+__all__ = ["evaluate", "sweep", "drop_curve", "run", "METHODS", "DROP_CURVE_STEPS"]
+
+METHODS = (
+    "Friction: 64/Re below Re 2000; Colebrook (Clamond's solution) above 4000; linear in Re between.",
+    "Fittings: Darby 3-K; bends: Rennels less arc friction; bore changes: Hooper sharp contraction "
+    "and expansion; reservoir entrance: 160/Re plus the turbulent entrance coefficient; exit: K = 2 "
+    "laminar, 1 turbulent.",
+    "Gear valve drop scaled as flow squared from its stated neutral drop.",
+)
+_FLUID_KEYS = ("name", "preset", "visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk",
+               "max_temp_c", "source")
+
+
+def _refused(problems, warnings) -> dict:
+    return {"ok": False, "errors": [p.as_dict() for p in problems], "warnings": [w.as_dict() for w in warnings]}
+
+
+def _part_row(k: int, p) -> dict:
+    size = p["od_mm"] if p["kind"] == "tube" else part_bore_mm(p)
+    dash, _, exact = dash_of_mm(size) if size else (None, None, False)
+    return {"index": k, "job_part": p.place, "adapter": p.adapter, "kind": p["kind"], "size_mm": size,
+            "dash": dash, "dash_exact": exact}
+
+
+def _line(ln, ports, circuit, j: int, checks: list, rating: dict, candidates: list) -> dict:
+    drop = circuit.largest_drops[j]
+    return {"index": ln.index, "name": ln.name, "role": ln.role, "verdict": worst_verdict(checks),
+            "pressure_drop_max_bar": drop["bar"], "pressure_drop_max_at": drop["at"], "checks": checks,
+            "ports": {"from_port": ports.plans[j]["from_port"], "to_port": ports.plans[j]["to_port"]},
+            "parts": [_part_row(k, p) for k, p in enumerate(ln.parts)],
+            "rating": rating, "candidates": candidates}
+
+
+def run(job) -> dict:
+    """Run the stages on a prepared job and assemble the result (see ``calc.model.result``).
+
+    Parameters
+    ----------
+    job : calc.model.prepared.PreparedJob
+
+    Returns
+    -------
+    dict
+        The result, every figure in SI or with its unit in the key.
+    """
+    ports = ports_stage(job)                          # adapter plans: they become parts of the lines
+    circuit = circuit_stage(job, ports)               # operating points, node pressures, hydraulic checks
+    ratings = ratings_stage(job, circuit)             # margins, weakest part, rating checks
+    selection = selection_stage(job, circuit, ratings)  # hose candidates
+    thermal = thermal_stage(job, circuit, ratings)    # heat, steady temperature, full lock, cooler
+    lines = [_line(ln, ports, circuit, j, ports.checks[j] + circuit.checks[j] + ratings.checks[j] + thermal.checks[j],
+                   ratings.ratings[j], selection.candidates[j])
+             for j, ln in enumerate(circuit.model.lines)]
+    warnings = [*job.warnings, *circuit.validity_warnings, *ratings.warnings, *circuit.relief_warnings]
+    return {
+        "ok": True,
+        "job_name": job.job["name"],
+        "fluid": {k: job.fluid[k] for k in _FLUID_KEYS},
+        "conditions": [{**op, **heat} for op, heat in zip(circuit.conditions, thermal.heat)],
+        "lines": lines,
+        "thermal": thermal.thermal,
+        "warnings": [w.as_dict() for w in warnings],
+        "methods": list(METHODS),
+        "pump_curve": circuit.pump_curve,
+    }
+
+
+def evaluate(job) -> dict:
+    """Evaluate a job.
+
+    Parameters
+    ----------
+    job : dict
+        A job document (see ``calc.model.job``), as parsed from JSON.
+
+    Returns
+    -------
+    result : dict
+        ``{"ok": False, "errors": [{"path", "message"}], "warnings": [...]}``
+        for an invalid job; otherwise the result declared in ``calc.model.result``.
+
+    Examples
+    --------
+    >>> import json, importlib.resources as ir
+    >>> demo = json.loads((ir.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
+    >>> r = evaluate(demo)
+    >>> r["ok"], [c["name"] for c in r["conditions"]]  # the job gives none: the four default points
+    (True, ['cold start', 'hot idle', 'highway', 'full lock hot'])
+    """
+    prepared, problems, warnings = prepare(job)
+    if problems:
+        return _refused(problems, warnings)
+    return run(prepared)
+
+
+def _solve_without_detail(prepared, conditions) -> dict:
+    circuit = Circuit(prepared, ports_stage(prepared).built_parts)
+    conds = [circuit.operating_point(c, detail=False) for c in conditions]
+    return {"ok": True, "lines": [{"name": ln.name, "role": ln.role} for ln in circuit.lines],
+            "conditions": [{k: c[k] for k in ("name", "fluid_temp_c", "viscosity_cst", "pump_outlet_bar",
+                                              "pump_inlet_bar", "circuit_flow_lpm", "lines")} for c in conds]}
+
+
+def sweep(job) -> dict:
+    """Hydraulics only, at each of the job's operating points: the cheap call for curves.
+
+    Preparation and ports as ``evaluate``; then every operating point is solved without per-part
+    detail, and neither the ratings nor the thermal stage runs.
+
+    Returns
+    -------
+    dict
+        ``{"ok": True, "lines": [{"name", "role"}], "conditions": [{"name",
+        "fluid_temp_c", "viscosity_cst", "pump_outlet_bar", "pump_inlet_bar", "circuit_flow_lpm",
+        "lines": [{"pressure_drop_bar", ...}]}]}`` or the errors as in ``evaluate``.
+    """
+    prepared, problems, warnings = prepare(job)
+    if problems:
+        return _refused(problems, warnings)
+    return _solve_without_detail(prepared, prepared.conditions)
+
+
+#: Intervals of the drop-against-temperature curve (a display choice).
+DROP_CURVE_STEPS = 8
+
+
+def drop_curve(job) -> dict:
+    """Pressure drop of every line against fluid temperature: the page's plot, computed here.
+
+    The temperatures run from the job's coldest operating point to its hottest (at least 20 K
+    wide) in ``DROP_CURVE_STEPS`` steps, at the speed of its fastest operating point not at full
+    lock (of any, if all are); each point is solved as by ``sweep``.
+
+    Returns
+    -------
+    dict
+        ``sweep``'s answer over those temperatures, plus ``engine_rpm``; or the errors as in
+        ``evaluate``.
+
+    Examples
+    --------
+    >>> import json, importlib.resources as ir
+    >>> demo = json.loads((ir.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
+    >>> r = drop_curve(demo)  # the default points: -20 C cold start to 100 C at full lock, 2500 rpm highway
+    >>> len(r["conditions"]), r["conditions"][0]["fluid_temp_c"], r["conditions"][-1]["fluid_temp_c"], r["engine_rpm"]
+    (9, -20.0, 100.0, 2500.0)
+    """
+    prepared, problems, warnings = prepare(job)
+    if problems:
+        return _refused(problems, warnings)
+    conds = prepared.conditions
+    temps = [c["fluid_temp_c"] for c in conds]
+    lo = min(temps)
+    hi = max(temps + [lo + 20.0])
+    rpm = max(c["engine_rpm"] for c in ([c for c in conds if not c["full_lock"]] or conds))
+    points = [{"name": f"sweep {i}", "engine_rpm": rpm, "full_lock": False,
+               "fluid_temp_c": round(lo + (hi - lo) * i / DROP_CURVE_STEPS, 3)} for i in range(DROP_CURVE_STEPS + 1)]
+    return dict(_solve_without_detail(prepared, points), engine_rpm=rpm)

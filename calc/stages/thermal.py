@@ -1,0 +1,342 @@
+"""Thermal stage: heat per operating point, steady temperature, full-lock hold, cooler advice.
+
+Besides the heat model of ``calc.system.thermal_model`` (whose assumptions it repeats in the
+result's ``thermal.method``), this stage assumes one steady bulk temperature for the whole duty
+cycle: the duty-weighted heat generated equals the duty-weighted heat rejected, each operating
+point re-solved at the trial temperature so viscosity follows temperature.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ..data.practice import CURVE_OVER_LIMIT_K
+from ..model.result import check, worst_verdict
+from ..physics.lumped import STEADY_MAX_C, STEADY_TOL_K, solve_steady, warmup
+from ..system.circuit import LPM
+from ..system.thermal_model import ThermalModel
+
+__all__ = ["METHOD", "ThermalSection", "thermal_stage", "lowest_part_limit"]
+
+METHOD = [
+    "Temperature rise across a part: dT = dp / (rho cp), the whole pressure loss turned into heat in the "
+    "fluid (elevation excluded).",
+    "Heat generated: at neutral, circuit flow x pump outlet pressure + feed-line friction loss x flow + "
+    "relief flow x relief setting when the relief is open; at full lock, delivered flow x relief setting. "
+    "With pump.overall_efficiency given, the pump's losses Q p_out (1/eta - 1) are added in full.",
+    "Line rejection: inside film (Nu = 3.66 laminar, Gnielinski turbulent, linear in Re between 2000 and "
+    "4000), wall conduction ln(do/di)/(2 pi k) and outside film in series; outside, natural convection by "
+    "Churchill-Chu (horizontal cylinder) and forced convection by Churchill-Bernstein (cylinder in cross "
+    "flow) combined as Nu^3 = Nu_forced^3 + Nu_free^3 (Churchill 1977); surface temperature iterated.",
+    "Radiation is not counted: conservative, since a black hose in still air can radiate about as much as "
+    "it loses by free convection when the surroundings are cooler (under a hood they often are not).",
+    "Air properties from the 1976 standard atmosphere at sea level, offset to the film temperature "
+    "(fluids.ATMOSPHERE_1976); air cp 1007 J/(kg K) (from memory).",
+    "Each part rejects C (1 - exp(-UA/C)) (T - T_air), C = rho cp Q of the fluid through it (effectiveness-"
+    "NTU, air side infinite); fittings and devices are not counted; lines without flow reject nothing.",
+    "Reservoir: area x film coefficient x (T - T_air). Cooler 'rating': min(rating, C) x (T - T_air); "
+    "cooler 'tube': a plain or finned tube in the air (same film correlations, annular fin efficiency by "
+    "Schmidt's approximation, film coefficient of the bare tube on the fins), effectiveness-NTU with the "
+    "fluid's capacity rate; the cooler carries the circuit flow.",
+    f"Steady temperature: duty-weighted heat generated = duty-weighted heat rejected at one bulk "
+    f"temperature, every operating point re-solved at the trial temperature; bracketed regula falsi "
+    f"(Illinois) between the air temperature and {STEADY_MAX_C:g} C, to a bracket under {STEADY_TOL_K} K.",
+    "Full-lock hold: one well-mixed lump of the whole fluid volume (lines + other_volume_l), rho cp V, "
+    "stepped by the exact solution of the locally linearised balance from the steady temperature (or the full-lock point's own temperature when there is "
+    "no steady temperature). The lines and a flow-through cooler carry no flow at full lock, so only the "
+    "reservoir rejects heat; the fluid in the pump heats faster than this average, so the time shown is "
+    "an upper estimate.",
+    "Cooler advice: the rating (or tube length) that brings the steady temperature down to the fluid "
+    "limit less the margin, computed with no cooler fitted.",
+]
+
+
+@dataclass(frozen=True)
+class ThermalSection:
+    """``heat`` (per operating point: the result's heat keys), ``thermal`` (the result's ``thermal``)
+    and per-line ``checks`` (part limits against the steady temperature)."""
+
+    heat: tuple
+    thermal: dict
+    checks: tuple
+
+
+def lowest_part_limit(circuit, ratings) -> tuple[float, str] | None:
+    """The lowest temperature limit of any rated part, with its description, or None."""
+    best = None
+    for ln, rating in zip(circuit.model.lines, ratings.ratings):
+        for p in rating["parts"]:
+            if p.get("max_temp_c") is not None and (best is None or p["max_temp_c"] < best[0]):
+                best = (p["max_temp_c"], f"{ln.name} part {p['index']} ({p['description']})")
+    return best
+
+
+def _weighted(model: ThermalModel, duty: list, t_c: float, with_cooler: bool = True) -> tuple[float, float, list]:
+    heat = rej = 0.0
+    parts = []
+    for cond, w in duty:
+        b = model.balance(cond, t_c, with_cooler=with_cooler)
+        heat += w * b["heat_w"]
+        rej += w * b["rejection"]["total_w"]
+        parts.append(b)
+    return heat, rej, parts
+
+
+def _full_lock_condition(conds) -> tuple[dict, str]:
+    for c in conds:
+        if c["full_lock"]:
+            return c, f"the operating point '{c['name']}'"
+    idle = min(conds, key=lambda c: c["engine_rpm"])
+    return dict(idle, full_lock=True, name=idle["name"] + " (at full lock)"), \
+        f"the slowest operating point '{idle['name']}' with the wheel at full lock (no full-lock point given)"
+
+
+def _rating_needed(caps: list, dt: float, deficit: float) -> float:
+    """Smallest cooler rating [W/K] that rejects ``deficit`` duty-weighted (bisection)."""
+    def rated(x):
+        return sum(w * min(x, c) for w, c in caps) * dt - deficit
+
+    lo, hi = 0.0, max(c for _, c in caps)
+    for _ in range(60):
+        mid = 0.5 * (lo + hi)
+        lo, hi = (mid, hi) if rated(mid) < 0.0 else (lo, mid)
+    return hi
+
+
+def _tube_needed(caps: list, uam: list, dt: float, deficit: float) -> float | None:
+    """Length [m] of the cooler tube that rejects ``deficit`` duty-weighted; None beyond 100 m."""
+    def tubed(length):
+        return sum(w * c * (1.0 - math.exp(-u * length / c)) for (w, c), u in zip(caps, uam) if c > 0) * dt \
+            - deficit
+
+    if tubed(100.0) < 0.0:
+        return None
+    lo, hi = 0.0, 100.0
+    for _ in range(50):
+        mid = 0.5 * (lo + hi)
+        lo, hi = (mid, hi) if tubed(mid) < 0.0 else (lo, mid)
+    return hi
+
+
+def _cooler_needed(model: ThermalModel, duty: list, target_c: float) -> dict:
+    """Cooler rating and tube length that hold the steady temperature at ``target_c`` (no cooler fitted)."""
+    ta = model.t_air_c
+    dt = target_c - ta
+    heat, rej, parts = _weighted(model, duty, target_c, with_cooler=False)
+    deficit = heat - rej
+    out = {"w_per_k": 0.0, "tube_m": 0.0, "deficit_w": deficit, "possible": True, "message": ""}
+    if deficit <= 0.0:
+        out["message"] = (f"no cooler needed: the lines and reservoir alone hold the fluid at or under "
+                          f"{target_c:.0f} C")
+        return out
+    if dt <= 0.0:
+        out.update(w_per_k=None, tube_m=None, possible=False,
+                   message=f"no cooler can help: the air ({ta:.0f} C) is not cooler than the target "
+                           f"{target_c:.0f} C")
+        return out
+    st = model.circuit.state(target_c)
+    caps = [(w, st.rho_kg_m3 * st.cp_j_kgk * b["circuit_flow_m3_s"]) for (_, w), b in zip(duty, parts)]
+    ceiling = sum(w * c for w, c in caps) * dt
+    if ceiling <= deficit:
+        out.update(w_per_k=None, tube_m=None, possible=False,
+                   message=f"no cooler in the return path can hold {target_c:.0f} C: even a perfect one would "
+                           f"reject {ceiling:.0f} W of the {deficit:.0f} W needed (too little flow through it)")
+        return out
+    out["w_per_k"] = hi = _rating_needed(caps, dt, deficit)
+    # the same duty as a length of the chosen (or default) cooler tube
+    uam = [model.cooler_tube_ua_per_m(target_c, b["circuit_flow_m3_s"], cond["air_speed_m_s"], st)
+           if b["circuit_flow_m3_s"] > 0 else 0.0 for (cond, _), b in zip(duty, parts)]
+    out["tube_m"] = length = _tube_needed(caps, uam, dt, deficit)
+    if length is None:
+        out["message"] = (f"a cooler of at least {hi:.1f} W/K is needed; more than 100 m of the chosen tube "
+                          "would be needed, so use a finned or packaged cooler")
+    else:
+        out["message"] = (f"a cooler of at least {hi:.1f} W/K is needed to hold {target_c:.0f} C, "
+                          f"or about {length:.2f} m of the chosen cooler tube")
+    return out
+
+
+def _condition_heat(model: ThermalModel, job_conds, conditions) -> list[dict]:
+    out = []
+    for cond, op in zip(job_conds, conditions):
+        b = model.balance(cond, op["fluid_temp_c"], op=op, detail=True)
+        out.append({"heat_w": b["heat_w"], "heat_hydraulic_w": b["heat_hydraulic_w"],
+                    "heat_pump_loss_w": b["heat_pump_loss_w"], "heat_rejected_w": b["rejection"]["total_w"],
+                    "heat_rejected_detail": b["rejection"]})
+    return out
+
+
+def _steady(model: ThermalModel, duty: list, limits: dict, out: dict, checks: list) -> float | None:
+    """Solve the steady temperature into ``out`` and its check into ``checks``; returns it."""
+    ta, limit, target, margin, basis = (limits[k] for k in ("air", "limit", "target", "margin", "basis"))
+    if not duty:
+        out["steady"] = {"status": "no duty cycle", "message": "no duty cycle given (every duty_percent is 0): "
+                         "give each operating point its share of time to get a steady temperature"}
+        checks.append(check("steady temperature", "caution", out["steady"]["message"]))
+        return None
+    res = solve_steady(lambda t: (lambda h, r, _: h - r)(*_weighted(model, duty, t)), ta, STEADY_MAX_C)
+    out["steady"] = res
+    steady = res["temp_c"]
+    if res["status"] not in ("converged", "no heat"):
+        checks.append(check("steady temperature", "fail", res["message"]
+                            + ("; fit a cooler or cut the heat load" if res["status"] == "none below" else "")))
+        return steady
+    heat, rej, parts = _weighted(model, duty, steady)
+    out["steady_heat_w"] = heat
+    out["steady_rejected_w"] = rej
+    out["steady_duty"] = [{"name": c["name"], "duty_percent": w * 100.0, "heat_w": b["heat_w"],
+                           "heat_rejected_w": b["rejection"]["total_w"], "lines_w": b["rejection"]["lines_w"],
+                           "reservoir_w": b["rejection"]["reservoir_w"], "cooler_w": b["rejection"]["cooler_w"]}
+                          for (c, w), b in zip(duty, parts)]
+    if steady > limit:
+        checks.append(check("steady temperature", "fail", f"fit a cooler or cut the heat load: the fluid settles "
+                                                          f"near {steady:.0f} C, above {basis}"))
+    elif steady > target:
+        checks.append(check("steady temperature", "caution", f"the fluid settles near {steady:.0f} C, within "
+                                                             f"{margin:.0f} K of {basis}; a cooler is advised"))
+    else:
+        checks.append(check("steady temperature", "ok", f"the fluid settles near {steady:.0f} C with {ta:.0f} C air, "
+                                                        f"at least {margin:.0f} K under {basis}"))
+    return steady
+
+
+def _full_lock(model: ThermalModel, job_conds, steady, limit: float, out: dict, checks: list) -> None:
+    circuit = model.circuit
+    fl_cond, fl_from = _full_lock_condition(job_conds)
+    t0 = steady if steady is not None else fl_cond["fluid_temp_c"]
+    start_from = "the steady temperature" if steady is not None else f"the temperature of {fl_from}"
+    op = circuit.operating_point(fl_cond, t_c=t0, detail=False)
+    power = sum(model.heat(op))
+    cap = circuit.state(t0).rho_kg_m3 * model.volume_m3 * circuit.fluid["specific_heat_j_kgk"]
+    q_fl = op["circuit_flow_lpm"] * LPM
+    hold = model.th["full_lock_hold_s"]
+    if cap <= 0.0:
+        wu = {"curve": [], "seconds_to_limit": None, "levels_off_c": None, "curve_note": "",
+              "message": "no fluid volume listed (give thermal.other_volume_l): the warm-up cannot be estimated"}
+    else:
+        if q_fl <= 0.0:  # no flow in the lines or a cooler: only the reservoir rejects, linear in T (fast path)
+            ua_res = model.th["reservoir_area_m2"] * model.th["reservoir_h_w_m2k"]
+
+            def rejected(t):
+                return ua_res * (t - model.t_air_c)
+        else:
+            def rejected(t):
+                return model.rejection(t, q_fl, fl_cond["air_speed_m_s"])["total_w"]
+        wu = warmup(t0, power, rejected, cap, limit, hold, curve_stop_c=limit + CURVE_OVER_LIMIT_K)
+    out["full_lock"] = {"condition": fl_from, "start_temp_c": t0, "start_from": start_from, "heat_w": power,
+                        "volume_l": model.volume_m3 * 1e3, "heat_capacity_j_k": cap,
+                        "levels_off_c": wu["levels_off_c"], "message": wu["message"],
+                        "curve_note": wu["curve_note"]}
+    out["full_lock_seconds_to_limit"] = tl = wu["seconds_to_limit"]
+    out["full_lock_curve"] = wu["curve"]
+    if cap <= 0.0:
+        checks.append(check("full-lock hold", "caution", wu["message"]))
+    elif tl is not None and tl < hold:
+        checks.append(check("full-lock hold", "caution",
+                            f"do not hold the wheel at full lock for long: starting from {start_from} "
+                            f"({t0:.0f} C), {wu['message']} ({power:.0f} W into {model.volume_m3 * 1e3:.2f} L)"))
+    else:
+        checks.append(check("full-lock hold", "ok", f"starting from {start_from} ({t0:.0f} C), {wu['message']} "
+                                                    f"within a {hold:.0f} s hold"))
+
+
+def _cooler_advice(model: ThermalModel, duty: list, target: float, steady, out: dict, checks: list) -> None:
+    if duty:
+        need = _cooler_needed(model, duty, target)
+    else:
+        need = {"w_per_k": None, "tube_m": None, "possible": None, "message": "no cooler advice without a duty cycle"}
+    out["cooler_needed_w_per_k"] = need["w_per_k"]
+    out["cooler_needed_tube_m"] = need["tube_m"]
+    c = model.cooler
+    out["cooler_tube"] = {"od_mm": c["tube_od_mm"], "wall_mm": c["tube_wall_mm"],
+                          "fins_per_inch": c["fins_per_inch"], "fin_od_mm": c["fin_od_mm"]}
+    msg = need["message"]
+    if need["w_per_k"]:
+        if c["type"] == "rating":
+            msg += f"; the cooler given is {c['w_per_k']:.1f} W/K"
+        elif c["type"] == "tube":
+            msg += f"; the cooler given is {c['tube_length_m']:.2f} m of that tube"
+    out["cooler_message"] = msg
+    if need["possible"] is None:  # no duty cycle
+        verdict = "caution"
+    elif not need["possible"]:
+        verdict = "fail"
+    elif need["w_per_k"] == 0.0:
+        verdict = "ok"
+    else:  # a cooler is needed: fine if the one fitted already holds the target
+        verdict = "ok" if c["type"] != "none" and steady is not None and steady <= target else "caution"
+    checks.append(check("cooler", verdict, msg))
+    for ln in model.circuit.lines:
+        for k, p in enumerate(ln.parts):
+            if p["kind"] == "device" and p.get("is_cooler") and c["type"] == "none":
+                place = k if p.place is None else p.place
+                checks.append(check("cooler", "caution", f"lines[{ln.index}].parts[{place}] is marked as a cooler "
+                                                         "but thermal.cooler gives no rating or tube: its heat "
+                                                         "rejection is not counted"))
+
+
+def _limits(job, model: ThermalModel, part_limit) -> dict:
+    limit = job.fluid["max_temp_c"]
+    basis = f"the fluid's limit {limit:.0f} C"
+    if part_limit is not None and part_limit[0] < limit:
+        limit = part_limit[0]
+        basis = f"the limit {limit:.0f} C of {part_limit[1]}, the lowest of the circuit's parts"
+    margin = model.th["limit_margin_c"]
+    return {"limit": limit, "basis": basis, "margin": margin, "target": limit - margin, "air": model.t_air_c}
+
+
+def _steady_part_checks(ratings, conditions, steady) -> list[list]:
+    """Each rated part's limit against the steady temperature, where the fluid settles hotter than every
+    operating point's own temperature (the ratings stage judged those)."""
+    out = []
+    for rating in ratings.ratings:
+        checks = []
+        if steady is not None and conditions and steady > max(c["fluid_temp_c"] for c in conditions):
+            over = [p for p in rating["parts"] if p.get("max_temp_c") is not None and p["max_temp_c"] < steady]
+            if over:
+                names = ", ".join(f"part {p['index']} ({p['description']}, {p['max_temp_c']:g} C)" for p in over)
+                checks.append(check("temperature (steady)", "fail",
+                                    f"add or enlarge a cooler, or use parts rated hotter: the fluid settles "
+                                    f"at {steady:.0f} C for this duty cycle, above the limit of {names}"))
+        out.append(checks)
+    return out
+
+
+def thermal_stage(job, circuit, ratings) -> ThermalSection:
+    """Heat per operating point, steady temperature, full-lock hold and cooler advice.
+
+    Never raises on a prepared job: a solve that fails is reported in the result.
+
+    Parameters
+    ----------
+    job : calc.model.prepared.PreparedJob
+    circuit : calc.stages.circuit.CircuitSection
+    ratings : calc.stages.ratings.RatingsSection
+        For the lowest part temperature limit.
+
+    Returns
+    -------
+    ThermalSection
+    """
+    model = ThermalModel(circuit.model)
+    job_conds = job.conditions
+    lim = _limits(job, model, lowest_part_limit(circuit, ratings))
+    heat = _condition_heat(model, job_conds, circuit.conditions)
+    checks = []
+    out = {"limit_c": lim["limit"], "limit_basis": lim["basis"], "target_c": lim["target"],
+           "margin_c": lim["margin"], "air_temp_c": lim["air"], "method": list(METHOD),
+           "hose_wall_defaulted": list(model.notes)}
+    if model.notes:
+        out["method"].append("Hose walls not given (" + ", ".join(model.notes) + ") use a typical wall for the "
+                             "bore (from memory, braided hydraulic hose); give wall_mm from the datasheet.")
+    duty = [(c, c["duty_percent"] / 100.0) for c in job_conds if c["duty_percent"] > 0.0]
+    steady = _steady(model, duty, lim, out, checks)
+    out["steady_temp_c"] = steady
+    _full_lock(model, job_conds, steady, lim["limit"], out, checks)
+    _cooler_advice(model, duty, lim["target"], steady, out, checks)
+    out["checks"] = checks
+    verdict = worst_verdict(checks)
+    out["verdict"] = verdict
+    out["message"] = checks[0]["message"] if verdict == "ok" else next(c for c in checks if c["verdict"] == verdict)[
+        "message"]
+    return ThermalSection(tuple(heat), out, tuple(_steady_part_checks(ratings, circuit.conditions, steady)))

@@ -1,0 +1,207 @@
+"""Heat generated and rejected by the circuit, at any trial fluid temperature.
+
+The model (stated assumptions; the sentences are repeated in ``thermal.method`` of the result):
+
+* the steering does no net work, so all the hydraulic power the pump puts
+  into the fluid becomes heat in the fluid: at neutral the circuit flow times
+  the pump outlet pressure, plus the frictional loss of the feed line, plus
+  the relief flow times the relief setting when the relief is open; at full
+  lock the whole delivered flow times the relief setting;
+* with ``pump.overall_efficiency`` given, the pump's own losses
+  ``Q p_out (1/eta - 1)`` are added in full to the fluid (conservative: part
+  of them leaves through the pump body and the belt);
+* every line part that is a hose or a tube rejects heat from its outer
+  surface to the under-hood air: inside film, wall conduction and outside film
+  in series; fittings and devices are not counted (small surfaces);
+* the fluid in a part is taken at the bulk temperature and the part rejects
+  ``C (1 - exp(-UA/C)) (T - T_air)`` with ``C`` the fluid's capacity rate
+  (effectiveness-NTU with the air as an infinite reservoir, Cr = 0), so a
+  line without flow (full lock) rejects nothing.
+
+References
+----------
+.. [1] Bergman, T. L., Lavine, A. S., Incropera, F. P., DeWitt, D. P.
+   Fundamentals of Heat and Mass Transfer, 7th ed. Wiley, 2011 (effectiveness-NTU).
+"""
+from __future__ import annotations
+
+import math
+
+from ht import effectiveness_from_NTU
+
+from ..data.tables import tube_materials, typical_hose_walls
+from ..physics.convection import G, h_inside_pipe
+from ..physics.heat import cylinder_ua_per_m, hydraulic_heat_w
+from .circuit import BAR, LPM
+from .line import part_bore_mm
+
+__all__ = ["default_hose_wall_mm", "ThermalModel"]
+
+
+def default_hose_wall_mm(bore_mm: float) -> float:
+    """Typical hose wall thickness for a bore, [mm] (``calc/data/hoses.json``, from memory).
+
+    Linear between the table's bores, held constant beyond its ends.
+
+    Examples
+    --------
+    >>> default_hose_wall_mm(9.5), default_hose_wall_mm(100.0)
+    (4.6, 6.3)
+    """
+    rows = [(r["bore_mm"], r["wall_mm"]) for r in typical_hose_walls()]
+    if bore_mm <= rows[0][0]:
+        return rows[0][1]
+    for (b0, w0), (b1, w1) in zip(rows, rows[1:]):
+        if bore_mm <= b1:
+            return w0 + (bore_mm - b0) / (b1 - b0) * (w1 - w0)
+    return rows[-1][1]
+
+
+def _user_index(part, k: int) -> int:
+    """The part's index in the user's list; a planned adapter keeps its place in the built line."""
+    return k if part.place is None else part.place
+
+
+class ThermalModel:
+    """Heat generated and rejected by a compiled ``calc.system.circuit.Circuit``.
+
+    Parameters
+    ----------
+    circuit : calc.system.circuit.Circuit
+        The compiled circuit.
+    cooler : mapping, optional
+        Overrides the job's ``thermal.cooler`` record (for advice and tests).
+    """
+
+    def __init__(self, circuit, cooler=None):
+        self.circuit = circuit
+        th = circuit.job.thermal
+        self.th = th
+        self.t_air_c = th["air_temp_c"]
+        self.cooler = dict(th["cooler"] if cooler is None else cooler)
+        self.relief_pa = circuit.pump["relief_bar"] * BAR
+        self.eta_o = circuit.pump.get("overall_efficiency")
+        self.surfaces = []
+        self.volume_m3 = th["other_volume_l"] * 1e-3
+        self.feed_rise = {}
+        self.notes = []
+        for ln in circuit.lines:
+            rise = 0.0
+            for k, p in enumerate(ln.parts):
+                rise += p.get("rise_m", 0.0) or 0.0
+                self._add_part(ln, k, p)
+            if ln.role == "feed":
+                self.feed_rise[ln.index] = rise
+
+    def _add_part(self, ln, k: int, p) -> None:
+        kind = p["kind"]
+        if kind in ("hose", "tube"):
+            d_i = part_bore_mm(p) * 1e-3
+            if kind == "hose":
+                wall = p.get("wall_mm")
+                if wall is None:
+                    wall = default_hose_wall_mm(d_i * 1e3)
+                    self.notes.append(f"lines[{ln.index}].parts[{_user_index(p, k)}].wall_mm")
+                k_wall = self.th["hose_conductivity_w_mk"]
+                d_o = d_i + 2.0 * wall * 1e-3
+            else:
+                d_o = p["od_mm"] * 1e-3
+                k_wall = tube_materials()[p.get("material")]["conductivity_w_mk"]
+            self.surfaces.append({"line": ln.index, "part": k, "kind": kind, "d_i": d_i, "d_o": d_o,
+                                  "k": k_wall, "length": p["length_m"], "eD": p["roughness_mm"] * 1e-3 / d_i})
+            self.volume_m3 += 0.25 * math.pi * d_i * d_i * p["length_m"]
+        elif kind == "fitting":
+            self.volume_m3 += 0.25 * math.pi * (p["bore_mm"] * 1e-3) ** 2 * p.get("passage_length_mm", 25.0) * 1e-3
+
+    # -- heat generated ------------------------------------------------------------
+    def heat(self, op: dict) -> tuple[float, float]:
+        """(hydraulic heat, pump losses) [W] of a solved operating point."""
+        q_c = op["circuit_flow_lpm"] * LPM
+        q_r = op["relief_flow_lpm"] * LPM
+        p_out = op["pump_outlet_bar"] * BAR
+        feed = 0.0
+        if q_c > 0.0:
+            for j, rise in self.feed_rise.items():
+                ln = op["lines"][j]
+                feed += max(ln["pressure_drop_bar"] * BAR - op["density_kg_m3"] * G * rise, 0.0)
+        hyd_w = hydraulic_heat_w(q_c, p_out, q_r, self.relief_pa if q_r > 0.0 else 0.0, feed)
+        loss = 0.0
+        if self.eta_o:
+            loss = op["pump_flow_lpm"] * LPM * p_out * (1.0 / self.eta_o - 1.0)
+        return hyd_w, loss
+
+    # -- heat rejected ------------------------------------------------------------
+    def rejection(self, t_c: float, q_m3_s: float, air_speed_m_s: float, with_cooler: bool = True,
+                  detail: bool = False) -> dict:
+        """Heat rejected [W] at bulk temperature ``t_c`` with circuit flow ``q_m3_s``."""
+        st = self.circuit.state(t_c)
+        ta = self.t_air_c
+        dt = t_c - ta
+        cap = st.rho_kg_m3 * st.cp_j_kgk * q_m3_s
+        pr = st.mu_pa_s * st.cp_j_kgk / st.k_w_mk
+        lines_w = 0.0
+        parts = [] if detail else None
+        if cap > 0.0 and dt != 0.0:
+            same = {}  # parts of one geometry share their UA per metre (exact: same inputs)
+            for s in self.surfaces:
+                key = (s["d_i"], s["d_o"], s["k"], s["eD"])
+                if key not in same:
+                    h_i = h_inside_pipe(s["d_i"], q_m3_s, st.nu_m2_s, st.k_w_mk, pr, s["eD"])
+                    same[key] = cylinder_ua_per_m(s["d_i"], s["d_o"], s["k"], t_c, ta, air_speed_m_s, h_i)
+                ua_m, ts = same[key]
+                ua = ua_m * s["length"]
+                w = cap * (1.0 - math.exp(-ua / cap)) * dt
+                lines_w += w
+                if detail:
+                    parts.append({"line": s["line"], "part": s["part"], "ua_w_k": ua, "heat_w": w,
+                                  "surface_temp_c": ts, "outside_mm": s["d_o"] * 1e3})
+        reservoir_w = self.th["reservoir_area_m2"] * self.th["reservoir_h_w_m2k"] * dt
+        cooler_w = self.cooler_w(t_c, q_m3_s, air_speed_m_s, st) if with_cooler else 0.0
+        out = {"lines_w": lines_w, "reservoir_w": reservoir_w, "cooler_w": cooler_w,
+               "total_w": lines_w + reservoir_w + cooler_w}
+        if detail:
+            out["parts"] = parts
+        return out
+
+    def cooler_tube_ua_per_m(self, t_c: float, q_m3_s: float, air_speed_m_s: float, st=None,
+                             cooler=None) -> float:
+        """UA per metre [W/(m K)] of the cooler's tube (plain or finned)."""
+        c = self.cooler if cooler is None else cooler
+        st = st or self.circuit.state(t_c)
+        d_o = c["tube_od_mm"] * 1e-3
+        d_i = d_o - 2.0 * c["tube_wall_mm"] * 1e-3
+        v = c["air_speed_m_s"] if c.get("air_speed_m_s") is not None else air_speed_m_s
+        pr = st.mu_pa_s * st.cp_j_kgk / st.k_w_mk
+        h_i = h_inside_pipe(d_i, q_m3_s, st.nu_m2_s, st.k_w_mk, pr, 1.5e-6 / d_i)
+        fins = None
+        if c.get("fins_per_inch") and c.get("fin_od_mm"):
+            fins = {"per_m": c["fins_per_inch"] / 0.0254, "d_fin_m": c["fin_od_mm"] * 1e-3,
+                    "t_fin_m": c.get("fin_thickness_mm", 0.4) * 1e-3,
+                    "k_fin_w_mk": c.get("fin_conductivity_w_mk", 200.0)}
+        ua, _ = cylinder_ua_per_m(d_i, d_o, c.get("tube_conductivity_w_mk", 50.0), t_c, self.t_air_c, v, h_i,
+                                  fins)
+        return ua
+
+    def cooler_w(self, t_c: float, q_m3_s: float, air_speed_m_s: float, st=None) -> float:
+        """Heat rejected by the job's cooler [W]."""
+        c = self.cooler
+        if c["type"] == "none" or q_m3_s <= 0.0:
+            return 0.0
+        st = st or self.circuit.state(t_c)
+        cap = st.rho_kg_m3 * st.cp_j_kgk * q_m3_s
+        dt = t_c - self.t_air_c
+        if c["type"] == "rating":
+            return min(c["w_per_k"], cap) * dt
+        ua = self.cooler_tube_ua_per_m(t_c, q_m3_s, air_speed_m_s, st) * c["tube_length_m"]
+        return effectiveness_from_NTU(ua / cap, 0.0, "counterflow") * cap * dt
+
+    # -- a condition at a trial temperature -----------------------------------------------
+    def balance(self, cond, t_c: float, op: dict | None = None, with_cooler: bool = True,
+                detail: bool = False) -> dict:
+        """Heat generated and rejected at ``cond`` with the fluid at ``t_c``."""
+        if op is None:
+            op = self.circuit.operating_point(cond, t_c=t_c, detail=False)
+        hyd_w, loss = self.heat(op)
+        rej = self.rejection(t_c, op["circuit_flow_lpm"] * LPM, cond["air_speed_m_s"], with_cooler, detail)
+        return {"heat_w": hyd_w + loss, "heat_hydraulic_w": hyd_w, "heat_pump_loss_w": loss,
+                "circuit_flow_m3_s": op["circuit_flow_lpm"] * LPM, "rejection": rej}

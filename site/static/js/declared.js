@@ -1,0 +1,40 @@
+// The engine's result declaration (calc.model.result, embedded at build time): the label and
+// unit of every result key, so the page's tables show what the engine declares and convert each
+// number by its declared unit. Paths use "[]" for list items: "conditions[].lines[].flow_lpm".
+import { readJSON } from "./util.js";
+import { fmt, unitLabel } from "./units.js";
+
+const ROWS = new Map(readJSON("linesmith-result-model").map((r) => [r.path, r]));
+
+export function declared(path) {
+  const row = ROWS.get(path);
+  if (!row) throw new Error(`the result declaration has no ${path}`);
+  return row;
+}
+
+// "Velocity (m/s)": the declared label with the display unit.
+export function heading(path) {
+  const row = declared(path);
+  const u = row.kind === "number" ? unitLabel(row.unit) : "";
+  return u ? `${row.label} (${u})` : row.label;
+}
+
+// A value of the result in the display system, by its declared unit.
+export function shown(value, path, decimals) {
+  return fmt(value, declared(path).unit, decimals);
+}
+
+// The dash size the engine gives a part of the user's list: "-6", or "≈ -6" when the size is
+// between dash sizes; "" when the result has no such part.
+export function partDash(result, lineIndex, jobPart) {
+  const line = result && (result.lines || [])[lineIndex];
+  const part = line && (line.parts || []).find((p) => p.job_part === jobPart);
+  if (!part || typeof part.dash !== "number") return "";
+  return `${part.dash_exact ? "" : "≈ "}-${part.dash}`;
+}
+
+// The engine's part record (size, dash) for a part of the user's list, or null.
+export function resultPart(result, lineIndex, jobPart) {
+  const line = result && (result.lines || [])[lineIndex];
+  return (line && (line.parts || []).find((p) => p.job_part === jobPart)) || null;
+}

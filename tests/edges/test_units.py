@@ -1,0 +1,38 @@
+"""Display units: exact conversions, sentences converted at the edge, numbers left in engine units."""
+import json
+
+from calc import evaluate
+from calc.edges.units import localize_result
+
+from ..jobs import demo_job
+
+
+def test_sentences_in_us_units():
+    # Source: exact conversions (NIST SP 811: 1 psi = 6894.757 Pa, 1 in = 25.4 mm, F = 1.8 C + 32).
+    from calc.edges.units import localize_result, localize_text
+    assert localize_text("must hold 100 bar at 100 C", "us") == "must hold 1450 psi at 212 F"
+    assert localize_text("radius 127 mm is under 254 mm", "us") == "radius 5.00 in is under 10.0 in"
+    assert localize_text("use -8 or a larger bore", "us") == "use -8 or a larger bore"
+    assert localize_text("must hold 100 bar", "metric") == "must hold 100 bar"
+    res = evaluate(demo_job())
+    us = localize_result(json.loads(json.dumps(res)), "us")
+    msgs = [c["message"] for ln in us["lines"] for c in ln["checks"]]
+    assert all(" bar" not in m for m in msgs)
+    assert us["conditions"][0]["pump_outlet_bar"] == res["conditions"][0]["pump_outlet_bar"]
+
+
+def test_which_strings_are_sentences_comes_from_the_result_declaration():
+    # Source: exact conversion 125 C = 1.8 x 125 + 32 = 257 F; the declaration (calc.model.result)
+    # names the full-lock curve note as a sentence, and the user's names as text.
+    import calc.edges.units as units
+    job = demo_job()
+    job["name"] = "test at 20 C"
+    res = evaluate(job)
+    assert res["thermal"]["full_lock"]["curve_note"].endswith("past 125 C")
+    us = localize_result(res, "us")
+    assert us["thermal"]["full_lock"]["curve_note"].endswith("past 257 F")
+    assert us["job_name"] == "test at 20 C"
+    assert [c["name"] for c in us["conditions"]] == [c["name"] for c in res["conditions"]]
+    assert not hasattr(units, "_TEXT_KEYS")
+    assert localize_result(res, "metric") is res
+    assert res["thermal"]["full_lock"]["curve_note"].endswith("past 125 C")  # the input is not edited
