@@ -20,10 +20,12 @@ __all__ = ["evaluate", "sweep", "drop_curve", "run", "METHODS", "DROP_CURVE_STEP
 
 METHODS = (
     "Friction: 64/Re below Re 2000; Colebrook (Clamond's solution) above 4000; linear in Re between.",
-    "Fittings: Darby 3-K; bends: Rennels less arc friction; bore changes: Hooper sharp contraction "
-    "and expansion; reservoir entrance: 160/Re plus the turbulent entrance coefficient; exit: K = 2 "
-    "laminar, 1 turbulent.",
-    "Gear valve drop scaled as flow squared from its stated neutral drop.",
+    "Fittings: Darby 3-K; bends: Rennels less arc friction above Re 2000, and in laminar flow the curved "
+    "arc's excess friction by White's correlation (none below Dean 11.6); bore changes: Hooper sharp "
+    "contraction and expansion, on the upstream bore's Reynolds number; reservoir entrance: 160/Re plus "
+    "the turbulent entrance coefficient (a projecting pipe by Rennels, from its wall thickness); exit: "
+    "K = 2 laminar, 1 turbulent.",
+    "Gear valve at neutral: an orifice whose loss is K = K_inf + K1/Re (Hooper's two-constant form), fitted to its measured drop, or to two measured drops at different temperatures.",
 )
 _FLUID_KEYS = ("name", "preset", "visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk",
                "max_temp_c", "source")
@@ -69,12 +71,13 @@ def run(job) -> dict:
     lines = [_line(ln, ports, circuit, j, ports.checks[j] + circuit.checks[j] + ratings.checks[j] + thermal.checks[j],
                    ratings.ratings[j], selection.candidates[j])
              for j, ln in enumerate(circuit.model.lines)]
-    warnings = [*job.warnings, *circuit.validity_warnings, *ratings.warnings, *circuit.relief_warnings]
+    warnings = [*job.warnings, *circuit.validity_warnings, *ratings.warnings]
     return {
         "ok": True,
         "job_name": job.job["name"],
         "fluid": {k: job.fluid[k] for k in _FLUID_KEYS},
         "conditions": [{**op, **heat} for op, heat in zip(circuit.conditions, thermal.heat)],
+        "circuit": {"verdict": worst_verdict(circuit.circuit_checks), "checks": list(circuit.circuit_checks)},
         "lines": lines,
         "thermal": thermal.thermal,
         "warnings": [w.as_dict() for w in warnings],

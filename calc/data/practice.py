@@ -4,11 +4,17 @@ Every check that compares with a limit of practice reads it here, so a limit has
 """
 from __future__ import annotations
 
-__all__ = ["INLET_MIN_BAR", "VELOCITY_BANDS_M_S", "TEMP_CAUTION_K", "LOW_PRESSURE_BAR", "TABLE_ROUNDING",
+__all__ = ["INLET_MIN_BAR", "INLET_FLOOR_BAR", "COLD_START_MAX_C", "VELOCITY_BANDS_M_S", "TEMP_CAUTION_K", "LOW_PRESSURE_BAR", "TABLE_ROUNDING",
            "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE"]
 
 #: Lowest pump-inlet gauge pressure before aeration and cavitation, bar (common practice, no source).
 INLET_MIN_BAR = -0.2
+#: Lowest gauge pressure any fluid can reach: a vacuum, less the vapour pressure of hydraulic oil (well under
+#: 0.01 bar absolute, from memory), from the standard atmosphere of 1.01325 bar (exact by definition).
+INLET_FLOOR_BAR = -1.01325 + 0.01
+#: An operating point at or below this fluid temperature is a cold start, where a relief that cracks open at
+#: neutral is expected until the fluid warms, C (a stated choice).
+COLD_START_MAX_C = 10.0
 
 #: Velocity bands by line role, m/s (common practice, no single source): feed 0.6-1.2 m/s (2-4 ft/s),
 #: return 1.5-3 m/s (5-10 ft/s), pressure 2-6 m/s (7-20 ft/s).

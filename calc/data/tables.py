@@ -4,8 +4,9 @@ Tables (each row names its ``source``; recalled figures say "from memory"):
 
 * ``hoses.json``: hose classes by standard and dash size, and typical hose walls by bore;
 * ``tubes.json``: rigid-tube materials (strength, bend rule, wall conductivity);
-* ``fittings.json``: fitting families with working pressure per size, and seal materials;
-* ``threads.json``: thread dimensions and the fitting ends that use each thread;
+* ``fittings.json``: the one list of fitting and port-end families: per size the thread, the
+  seal, a typical bore and the one working pressure; and the seal materials;
+* ``threads.json``: thread dimensions (the ends that use each thread come from ``fittings.json``);
 * ``fluids.json``: generic fluid presets and the defaults of a custom fluid.
 
 Every row is read-only (``calc.data.frozen``): the engine never edits a table.
@@ -21,7 +22,7 @@ from .frozen import FrozenDict, freeze
 
 __all__ = ["load", "hose_classes", "find_class", "typical_hose_walls", "tube_materials", "fitting_families",
            "seals", "threads", "ends", "find_thread", "fluid_presets", "custom_fluid_defaults", "size_row",
-           "end_families", "seal_words", "port_words"]
+           "end_families", "seal_words", "port_words", "family_rating"]
 
 
 @lru_cache(maxsize=None)
@@ -99,16 +100,43 @@ def size_row(rows, dash):
     return None
 
 
+def family_rating(fam, row=None):
+    """The one working pressure of a fitting family at a size row: the row's, or the family's own
+    figure where it does not vary by size (banjo bolts, barbs); None when neither is tabulated.
+
+    Examples
+    --------
+    >>> fam = fitting_families()["jic-37"]
+    >>> family_rating(fam, size_row(fam["sizes"], 6)), family_rating(fitting_families()["banjo"])
+    (310.3, 160.0)
+    """
+    if fam.get("working_bar") is not None:
+        return fam["working_bar"]
+    return row.get("working_bar") if row is not None else None
+
+
 @lru_cache(maxsize=1)
-def _thread_tables() -> tuple[FrozenDict, tuple]:
-    doc = load("threads.json")
-    uses: dict[str, list] = {t["designation"]: [] for t in doc["threads"]}
-    for e in doc["ends"]:
+def _end_rows() -> tuple:
+    """Every size row of every family as a fitting-end row, with its family and its one rating."""
+    out = []
+    for fam in fitting_families().values():
+        for row in fam["sizes"]:
+            if row.get("seal") is None:
+                continue  # a size only the fitting table knows (no thread: not a port end)
+            src = row.get("source") or fam.get("rating_source")
+            out.append(FrozenDict(row, family=fam["family"], working_bar=family_rating(fam, row),
+                                  rating_source=src, source=fam["source"]))
+    return tuple(out)
+
+
+@lru_cache(maxsize=1)
+def _thread_tables() -> FrozenDict:
+    uses: dict[str, list] = {t["designation"]: [] for t in load("threads.json")["threads"]}
+    for e in _end_rows():
         if e["thread"] is not None:
             uses[e["thread"]].append(e)
-    rows = FrozenDict({t["designation"]: FrozenDict(t, ends=tuple(uses[t["designation"]]))
-                       for t in doc["threads"]})
-    return rows, doc["ends"]
+    return FrozenDict({t["designation"]: FrozenDict(t, ends=tuple(uses[t["designation"]]))
+                       for t in load("threads.json")["threads"]})
 
 
 def threads() -> FrozenDict:
@@ -120,18 +148,19 @@ def threads() -> FrozenDict:
     >>> round(row["major_mm"], 4), sorted({e["family"] for e in row["ends"]})
     (14.2875, ['banjo', 'jic-37', 'orb'])
     """
-    return _thread_tables()[0]
+    return _thread_tables()
 
 
 def ends() -> tuple:
-    """Every fitting-end row: family, size, thread, seal, working_bar, bore_mm, sources.
+    """Every fitting-end row (a family's size rows with a thread or barb): family, size, dash, thread,
+    seal, working_bar (the family's one figure), bore_mm, sources.
 
     Examples
     --------
     >>> [e["thread"] for e in ends() if e["family"] == "cone-24-l" and e["size"] == "10L"]
     ['M16x1.5']
     """
-    return _thread_tables()[1]
+    return _end_rows()
 
 
 def _norm(text: str) -> str:
@@ -180,15 +209,18 @@ def custom_fluid_defaults() -> FrozenDict:
     return load("fluids.json")["custom_defaults"]["values"]
 
 
+@lru_cache(maxsize=1)
 def end_families() -> FrozenDict:
-    """Fitting-end families of the adapter planner: ``{family: {label, standard, gender}}``.
+    """Fitting-end families of the adapter planner: ``{family: {label, standard, gender}}``, read from the
+    one family table (``fittings.json``); the crimped hose stem is not a port end.
 
     Examples
     --------
     >>> end_families()["jic-37"]["standard"]
     'SAE J514'
     """
-    return load("threads.json")["end_families"]
+    return FrozenDict({k: FrozenDict(label=f["label"], standard=f["standard"], gender=f["gender"])
+                       for k, f in fitting_families().items() if k != "crimp-stem"})
 
 
 def seal_words() -> FrozenDict:

@@ -109,13 +109,16 @@ def _thermal_lines(th: dict, s: _Show) -> list[str]:
            f"target {temp(th['target_c'])}"]
     out.extend(_steady_lines(th, s, temp))
     fl = th.get("full_lock", {})
-    out.append(f"  full-lock hold from {temp(fl.get('start_temp_c'))}: {fl.get('message', '')}")
+    tl = th.get("full_lock_seconds_to_limit")
+    out.append(f"  full-lock hold from {temp(fl.get('start_temp_c'))}: the fluid in the pump "
+               + (f"reaches the limit after {tl:.0f} s" if tl is not None else "does not reach the limit")
+               + f"; whole fluid, mixed: {fl.get('message', '')}")
     curve = th.get("full_lock_curve") or []
     if curve:
+        c_ = "thermal.full_lock_curve[]."
         step = max(1, len(curve) // 5)
-        out.append("    " + ", ".join(f"{p['t_s']:.0f} s {s.num(p['temp_c'], 'thermal.full_lock_curve[].temp_c', '{:.0f}')}"
-                                      for p in curve[::step]) + f" {s.unit('thermal.full_lock_curve[].temp_c')}"
-                   + (f" ({fl['curve_note']})" if fl.get("curve_note") else ""))
+        out.append("    in the pump: " + ", ".join(f"{p['t_s']:.1f} s {s.num(p['pump_temp_c'], c_ + 'pump_temp_c', '{:.0f}')}"
+                                                   for p in curve[::step]) + f" {s.unit(c_ + 'pump_temp_c')}")
     need = th.get("cooler_needed_w_per_k")
     out.append("  cooler: " + th.get("cooler_message", "")
                + (f" [{s.fig(need, 'thermal.cooler_needed_w_per_k', '{:.1f}')}]" if need else ""))
@@ -170,6 +173,12 @@ def text_report(res: dict, units: str = "metric") -> str:
            f"Fluid: {res['fluid']['name']} ({res['fluid']['source']})", ""]
     for c in res["conditions"]:
         out.extend(_condition_lines(c, s))
+    circuit = res.get("circuit")
+    if circuit:
+        out.append(f"Pump, relief and gear: [{circuit['verdict']}]")
+        for ch in circuit["checks"]:
+            out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+        out.append("")
     out.append("Checks per line")
     rated = False
     for ln in res["lines"]:

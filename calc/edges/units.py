@@ -46,6 +46,7 @@ UNITS = {
     "film_w_m2k": ("W/(m²·K)", "BTU/(h·ft²·°F)", 0.1761101838, 0.0),
     "count": ("", "", 1.0, 0.0),
     "dimensionless": ("", "", 1.0, 0.0),
+    "temp_rate_k_s": ("K/s", "°F/s", 1.8, 0.0),
     # 1 BTU/F = 1055.05585262 J x 1.8 /K (International Table BTU)
     "heat_capacity_j_k": ("J/K", "BTU/°F", 1 / 1899.100534716, 0.0),
 }

@@ -26,22 +26,23 @@ from __future__ import annotations
 
 import math
 
-from ..data.tables import fluid_presets
+from ..data.tables import fitting_families, fluid_presets
 from ..physics.fluid import NU_MAX_CST
+from ..physics.valve import valve_constants_one_point, valve_constants_two_points
 from .fluid import resolve_fluid, state_of
 from .schema import REQUIRED, Field, ListOf, Record, Variants, validate, Problem
 
 __all__ = ["JOB_VERSION", "JOB", "PART", "PORT", "LINE", "CONDITION", "DEFAULT_CONDITIONS", "FLUID_PRESETS",
            "LINE_ROLES", "FITTING_SHAPES", "FITTING_FAMILIES", "TUBE_MATERIALS", "SEAL_TYPES", "describe_job",
-           "validate_job"]
+           "validate_job", "gear_constants"]
 
 JOB_VERSION = 1
 
 FLUID_PRESETS = tuple(fluid_presets())
 LINE_ROLES = ("pressure", "return", "feed")
 FITTING_SHAPES = ("straight", "elbow-45", "elbow-90", "tee-run", "tee-branch", "banjo", "bulkhead")
-FITTING_FAMILIES = ("jic-37", "inverted-flare-45", "orb", "cone-24-l", "cone-24-s", "metric-oring-port",
-                    "banjo", "barb-clamp", "crimp-stem")
+#: One list of end families for fitting parts and for port ends (``calc/data/fittings.json``).
+FITTING_FAMILIES = tuple(fitting_families())
 TUBE_MATERIALS = ("steel-low-carbon", "stainless-304-annealed", "aluminium-6061-t6", "copper-nickel")
 SEAL_TYPES = ("flare-37", "flare-45", "cone-24", "oring-boss", "metric-oring", "crush-washer",
               "pipe-taper", "hose-barb", "unknown")
@@ -147,7 +148,11 @@ DEVICE = Record("device", "Cooler or series device", (
 ENTRANCE = Record("entrance", "Reservoir outlet (flow enters the line)", (
     Field("bore_mm", "Bore", unit="length_mm", default=REQUIRED, ge=0.5, le=100),
     Field("edge", "Edge", "choice", default="sharp", choices=("sharp", "rounded", "projecting"),
-          help="Shape of the opening where fluid leaves the reservoir."),
+          help="Shape of the opening where fluid leaves the reservoir: flush with a sharp edge, rounded, or a "
+               "pipe standing into the reservoir."),
+    Field("wall_mm", "Wall of a projecting pipe", unit="length_mm", default=None, gt=0, le=20,
+          help="Wall thickness of a pipe standing into the reservoir; a thin wall loses more than a thick one. "
+               "Empty: a thin wall of 1 % of the bore (stated default)."),
 ))
 
 EXIT = Record("exit", "Discharge into reservoir", (
@@ -166,9 +171,7 @@ PORT = Record("port", "Port", (
     Field("seal", "Port seal", "choice", default=None, choices=SEAL_TYPES,
           help="How the port seals."),
     Field("line_end_family", "Line end", "choice", default=None,
-          choices=("jic-37", "orb", "inverted-flare-45", "flare-45-sae", "cone-24-l", "cone-24-s",
-                   "metric-oring-port", "metric-washer-port", "bspp-port", "pipe-npt", "pipe-bspt", "banjo",
-                   "barb-clamp"),
+          choices=tuple(f for f in FITTING_FAMILIES if f != "crimp-stem"),
           help="End family of the hose or tube fitting that meets this port; the adapters between them are "
                "planned from the thread tables."),
     Field("line_end_dash", "Line end size (dash)", "integer", default=None, gt=0, le=64,
@@ -251,18 +254,33 @@ PUMP = Record("pump", "Pump and drive", (
           help="Delivered over geometric flow; 0.85-0.95 is typical of vane pumps (from memory)."),
     Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
           help="Most flow the flow-control valve lets out; the rest recirculates in the pump."),
+    Field("metering_drop_bar", "Flow-control metering drop", unit="pressure_bar", default=0.0, ge=0, le=50,
+          help="Drop across the flow-control valve's metering orifice while it limits the flow; the pump works "
+               "against the outlet pressure plus this drop. Not counted unless given (0), so the heat is a lower "
+               "bound; spools typically drop about 1-3 bar (from memory): give the maker's figure."),
     Field("relief_bar", "Relief setting", unit="pressure_bar", default=REQUIRED, ge=1, le=500,
           warn_above=200, help="Pressure at which the relief valve opens."),
     Field("overall_efficiency", "Overall efficiency", unit="ratio", default=None, gt=0, le=1,
-          help="If given, the pump's own losses are added to the heat load."),
+          help="Volumetric x mechanical efficiency. If given, the mechanical (friction) losses are added to the "
+               "heat load; the leakage is already in it, from the volumetric efficiency."),
 ))
 
 GEAR = Record("gear", "Steering gear", (
     Field("neutral_drop_bar", "Valve drop at neutral", unit="pressure_bar", default=REQUIRED, ge=0, le=100,
           help="Pressure drop across the open-centre valve with no steering input, at the stated flow."),
     Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.5, le=500,
-          help="Flow at which the neutral drop was measured; other flows scale as flow squared "
-               "(orifice flow, stated assumption)."),
+          help="Flow at which the neutral drop was measured."),
+    Field("at_temp_c", "At fluid temperature", unit="temp_c", default=80.0, ge=-50, le=200,
+          help="Fluid temperature at which the neutral drop was measured (80 C, a hot running temperature, "
+               "when not stated). Other flows and temperatures follow an orifice whose loss rises when the "
+               "fluid is cold (two-constant form fitted to this point)."),
+    Field("cold_drop_bar", "Second measured drop (cold)", unit="pressure_bar", default=None, ge=0, le=200,
+          help="A second neutral drop measured at another fluid temperature: with it the valve's laminar and "
+               "inertial parts are fitted to both points instead of estimated."),
+    Field("cold_at_flow_lpm", "Second point: at flow", unit="flow_lpm", default=None, ge=0.5, le=500,
+          help="Flow of the second measurement; empty: the same flow as the first."),
+    Field("cold_at_temp_c", "Second point: at fluid temperature", unit="temp_c", default=None, ge=-50, le=200,
+          help="Fluid temperature of the second measurement; at least 10 K from the first."),
 ))
 
 RATINGS = Record("ratings", "Rating settings", (
@@ -311,7 +329,13 @@ THERMAL = Record("thermal", "Thermal settings", (
     Field("reservoir_h_w_m2k", "Reservoir film coefficient", unit="film_w_m2k", default=10.0, gt=0, le=500,
           help="Overall coefficient of the reservoir surface; 5-15 W/(m2 K) for still air (from memory)."),
     Field("other_volume_l", "Fluid in pump, gear and reservoir", unit="volume_l", default=0.8, ge=0, le=100,
-          help="Fluid volume outside the listed lines, for the full-lock warm-up."),
+          help="Fluid volume outside the listed lines, for the full-lock warm-up of the whole fluid."),
+    Field("pump_volume_l", "Fluid in the pump", unit="volume_l", default=0.15, gt=0, le=10,
+          help="Fluid inside the pump and its own passages, which takes the heat at full lock while the lines "
+               "stand still; 0.15 L is typical of a car's vane pump (from memory)."),
+    Field("pump_heat_capacity_j_k", "Pump body heat capacity", unit="heat_capacity_j_k", default=500.0, ge=0,
+          le=100000, help="Heat capacity of the part of the pump body that warms with its fluid at full lock; "
+                          "500 J/K is about 1 kg of aluminium (from memory)."),
     Field("hose_conductivity_w_mk", "Hose wall conductivity", unit="conductivity_w_mk", default=0.25, gt=0,
           le=50, help="Rubber hose wall; about 0.2-0.3 W/(m K) (from memory)."),
     Field("full_lock_hold_s", "Longest full-lock hold to show", unit="time_s", default=600.0, gt=0,
@@ -369,21 +393,32 @@ def validate_job(job) -> tuple[dict | None, list[Problem], list[Problem]]:
 
 def _cross_checks(job: dict, problems: list, warnings: list) -> None:
     """The rules that span fields; ``job["fluid"]`` is replaced by its resolved record."""
-    _fluid_checks(job, problems)
+    _fluid_checks(job, problems, warnings)
     if sum(1 for ln in job["lines"] if ln["role"] == "pressure") == 0:
         warnings.append(Problem("lines", "no pressure line listed: the circuit pressure at neutral is "
                                          "only the gear and return losses"))
     for i, ln in enumerate(job["lines"]):
         _line_checks(i, ln, problems)
+    pump = job["pump"]
+    if pump["overall_efficiency"] is not None and pump["overall_efficiency"] > pump["volumetric_efficiency"]:
+        problems.append(Problem("pump.overall_efficiency", "must be at most the volumetric efficiency (overall = "
+                                                           "volumetric x mechanical efficiency)"))
     duty = [c["duty_percent"] for c in job["conditions"]]
     total = sum(duty)
     if total > 0 and abs(total - 100.0) > 0.01:
         problems.append(Problem("conditions", f"the shares of time (duty_percent) add up to {total:g} %, "
                                               "not 100 %"))
     _cooler_checks(job["thermal"]["cooler"], problems)
+    _gear_checks(job["gear"], job["fluid"], problems)
 
 
-def _fluid_checks(job: dict, problems: list) -> None:
+#: ASTM D341 slopes B of real hydraulic fluids: about 4.5 for a low-VI naphthenic oil, 3.7 for VI-100 mineral
+#: oil, 2.5 for synthetic steering fluids, 1.6 for silicone fluids (computed from recalled datasheet pairs,
+#: from memory); outside this range two datasheet points are more likely a typing slip than a fluid.
+WALTHER_SLOPE_RANGE = (1.2, 5.0)
+
+
+def _fluid_checks(job: dict, problems: list, warnings: list) -> None:
     fl = job["fluid"]
     if fl["preset"] in (None, "custom"):
         for k in ("visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk"):
@@ -395,6 +430,13 @@ def _fluid_checks(job: dict, problems: list) -> None:
     if problems:
         return
     job["fluid"] = resolve_fluid(fl)
+    slope = job["fluid"]["walther_b"]
+    if not WALTHER_SLOPE_RANGE[0] <= slope <= WALTHER_SLOPE_RANGE[1]:
+        warnings.append(Problem("fluid.visc_100c_cst",
+                                f"{job['fluid']['visc_40c_cst']:g} cSt at 40 C and {job['fluid']['visc_100c_cst']:g} "
+                                f"cSt at 100 C imply a viscosity-temperature slope (ASTM D341 constant B = "
+                                f"{slope:.2f}) outside what real hydraulic fluids show (about "
+                                f"{WALTHER_SLOPE_RANGE[0]:g} to {WALTHER_SLOPE_RANGE[1]:g}); check the datasheet values"))
     for i, c in enumerate(job["conditions"]):
         try:
             nu = state_of(job["fluid"], c["fluid_temp_c"]).nu_m2_s * 1e6
@@ -443,3 +485,32 @@ def _cooler_checks(cooler: dict, problems: list) -> None:
             problems.append(Problem("thermal.cooler.fin_thickness_mm", "the fins would fill the tube: fin "
                                                                        "thickness x fins per inch must be "
                                                                        "under 25.4 mm"))
+
+
+def _gear_checks(gear: dict, fluid: dict, problems: list) -> None:
+    if gear["cold_drop_bar"] is None:
+        return
+    if gear["cold_at_temp_c"] is None:
+        problems.append(Problem("gear.cold_at_temp_c", "is missing (a second measured drop needs its fluid "
+                                                       "temperature)"))
+    elif abs(gear["cold_at_temp_c"] - gear["at_temp_c"]) < 10.0:
+        problems.append(Problem("gear.cold_at_temp_c", "must be at least 10 K from the first measurement's "
+                                                       "temperature, so the two points tell viscosity apart"))
+    elif "walther_a" in fluid and gear_constants(gear, fluid) is None:
+        problems.append(Problem("gear.cold_drop_bar", "the two measured drops give no valve whose drop rises "
+                                                      "with viscosity: check both points and their temperatures"))
+
+
+def gear_constants(gear, fluid) -> tuple[float, float] | None:
+    """The valve's constants (a, b) of ``calc.physics.valve`` for a validated gear record and a resolved
+    fluid: through both measured points when a second is given, else the orifice model through the
+    one point; None when two points give no positive pair."""
+    st0 = state_of(fluid, gear["at_temp_c"])
+    q0 = gear["at_flow_lpm"] / 60000.0
+    p0 = (gear["neutral_drop_bar"] * 1e5, q0, st0.nu_m2_s, st0.rho_kg_m3)
+    if gear.get("cold_drop_bar") is None:
+        return valve_constants_one_point(*p0)
+    st1 = state_of(fluid, gear["cold_at_temp_c"])
+    q1 = (gear.get("cold_at_flow_lpm") or gear["at_flow_lpm"]) / 60000.0
+    return valve_constants_two_points(p0, (gear["cold_drop_bar"] * 1e5, q1, st1.nu_m2_s, st1.rho_kg_m3))
+

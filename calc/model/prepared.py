@@ -149,12 +149,13 @@ def _hose_part(p: dict, place: int, path: str, problems: list) -> Part:
 
 def _fitting_size_problem(p: dict, path: str) -> Problem | None:
     fam = fitting_families()[p["family"]]
-    if not fam["sizes"] or size_row(fam["sizes"], p["dash"]) is not None:
-        return None
+    if not fam["sizes"] or fam.get("working_bar") is not None or size_row(fam["sizes"], p["dash"]) is not None:
+        return None  # a family rated for all its sizes (banjo, barb) takes any size
     metric = "mm" in fam["size_basis"]
     size = f"size {p['dash']}" if metric else f"-{p['dash']}"
+    rows = [r for r in fam["sizes"] if r["dash"] is not None]
     return Problem(f"{path}.dash", f"{fam['name']} has no {size} in the tables; sizes: "
-                                   f"{sizes_text(fam['sizes'], metric)} ({fam['size_basis']}); or give working_bar")
+                                   f"{sizes_text(rows, metric)} ({fam['size_basis']}); or give working_bar")
 
 
 def _prepare_parts(i: int, parts: list, problems: list) -> tuple:

@@ -1,4 +1,4 @@
-"""Heat in the fluid and through a line's wall: throttling, hydraulic power, fins, resistances in series.
+"""Heat in the fluid and through a line's wall: throttling, fins, resistances in series.
 
 References
 ----------
@@ -14,7 +14,7 @@ import math
 
 from .convection import h_outside_cylinder
 
-__all__ = ["temp_rise_c", "hydraulic_heat_w", "annular_fin_efficiency", "cylinder_ua_per_m"]
+__all__ = ["temp_rise_c", "annular_fin_efficiency", "cylinder_ua_per_m"]
 
 
 def temp_rise_c(dp_pa: float, rho_kg_m3: float, cp_j_kgk: float) -> float:
@@ -49,41 +49,6 @@ def temp_rise_c(dp_pa: float, rho_kg_m3: float, cp_j_kgk: float) -> float:
     .. [1] Energy balance of adiabatic throttling of an incompressible liquid, h = u + p/rho.
     """
     return max(dp_pa, 0.0) / (rho_kg_m3 * cp_j_kgk)
-
-
-def hydraulic_heat_w(circuit_flow_m3_s: float, outlet_pa: float, relief_flow_m3_s: float = 0.0,
-                     relief_pa: float = 0.0, feed_loss_pa: float = 0.0) -> float:
-    r"""Heat generated in the fluid by the pump's hydraulic power when no work is done.
-
-    .. math::
-        P = Q_c (p_{out} + \Delta p_{feed}) + Q_r p_{relief}
-
-    Parameters
-    ----------
-    circuit_flow_m3_s : float
-        Flow round the circuit, [m^3/s] (0 at full lock).
-    outlet_pa : float
-        Pump outlet gauge pressure, [Pa].
-    relief_flow_m3_s : float
-        Flow across the relief valve, [m^3/s].
-    relief_pa : float
-        Relief setting, [Pa].
-    feed_loss_pa : float
-        Friction and minor losses of the feed line (no elevation), [Pa].
-
-    Returns
-    -------
-    heat_w : float
-        Heat generated, [W].
-
-    Examples
-    --------
-    20 L/min over an 85 bar relief is p Q = 85e5 x 20/60000 = 2833 W (exact):
-
-    >>> round(hydraulic_heat_w(0.0, 85e5, 20 / 60000, 85e5), 6)
-    2833.333333
-    """
-    return circuit_flow_m3_s * (outlet_pa + feed_loss_pa) + relief_flow_m3_s * relief_pa
 
 
 def annular_fin_efficiency(d_tube_m: float, d_fin_m: float, t_fin_m: float, k_fin_w_mk: float,

@@ -8,7 +8,8 @@ them from fluids once and evaluate ``K = k1/Re + k_inf`` or ``K = a + b f`` at e
 Methods (all from ``fluids`` except where stated):
 
 * bends: Rennels' rounded-bend coefficient (``fluids.bend_rounded``), less the
-  straight friction of the arc, because the arc is already in the part's length;
+  straight friction of the arc, because the arc is already in the part's length; in laminar flow
+  the excess friction of the curved arc by White's correlation (``laminar_bend_k``);
 * fitting bodies: Darby 3-K (``fluids.Darby3K``) with the bore in inches as Darby's
   nominal size (an extrapolation below the smallest pipe size of the correlation's
   data, stated); a banjo is taken as two drilled 90 degree turns (common practice,
@@ -37,11 +38,11 @@ from __future__ import annotations
 import math
 
 from fluids import (Darby3K, bend_rounded, contraction_sharp, diffuser_sharp, entrance_distance,
-                    entrance_rounded, entrance_sharp, exit_normal)
+                    entrance_rounded, entrance_sharp, exit_normal, helical_laminar_fd_White)
 
 from .friction import RE_LAMINAR, RE_TURBULENT
 
-__all__ = ["DARBY_FITTINGS", "bend_loss_coefficients", "fitting_body_coefficients", "entrance_coefficients",
+__all__ = ["DARBY_FITTINGS", "bend_loss_coefficients", "laminar_bend_k", "DEAN_STRAIGHT", "fitting_body_coefficients", "entrance_coefficients",
            "exit_k", "contraction_k", "expansion_k", "device_drop_pa"]
 
 #: Fitting shape -> (Darby 3-K table entry, number of such turns); a banjo is two drilled 90 degree
@@ -96,6 +97,65 @@ def bend_loss_coefficients(d_m: float, angle_deg: float, rc_m: float) -> tuple[f
     return k0, k_1 - k0 - math.radians(angle_deg) * rc_m / d_m
 
 
+#: Below this Dean number a laminar bend adds no loss to its arc's straight friction (White 1929, as
+#: ``fluids.helical_laminar_fd_White`` applies it).
+DEAN_STRAIGHT = 11.6
+
+
+def laminar_bend_k(re: float, d_m: float, angle_deg: float, rc_m: float) -> float:
+    r"""Extra loss of a bend in laminar flow: the curved arc's friction above a straight run's.
+
+    .. math::
+        K = (f_{curved} - f_{straight}) \frac{\theta R}{D}, \qquad f_{straight} = 64/Re
+
+    with :math:`f_{curved}` from White's curved-pipe correlation (``fluids.helical_laminar_fd_White``,
+    coil diameter 2R), which returns the straight value below Dean number 11.6.
+
+    Parameters
+    ----------
+    re : float
+        Reynolds number in the bore, [-]; laminar (under 2000).
+    d_m : float
+        Bore, [m].
+    angle_deg : float
+        Angle turned, [degrees].
+    rc_m : float
+        Centre-line radius, [m].
+
+    Returns
+    -------
+    K : float
+        Coefficient on the bore's velocity head, [-]; 0 at low Dean number.
+
+    Notes
+    -----
+    White's correlation is stated for 11.6 < De < 2000 and coils with D/Dc from 0.0004 to 0.066 (R/D
+    over 7.6); tighter bends use it beyond that curvature (stated). A turbulent bend correlation
+    (Rennels) applied with f = 64/Re overstates a laminar bend's loss; this replaces it in laminar flow.
+    The arc's straight friction is already in the part's length, so only the excess is added.
+
+    Examples
+    --------
+    At Re 100 a 90 degree bend of radius 2 D has Dean number 100 / 2 = 50; the excess is White's ratio
+    less one, times 64/Re, times the arc of pi/2 x 2 bores (exact arithmetic on the correlation):
+
+    >>> import math
+    >>> de = 100 * math.sqrt(0.01 / 0.04)
+    >>> ratio = 1 / (1 - (1 - (11.6 / de) ** 0.45) ** (1 / 0.45))
+    >>> round(laminar_bend_k(100.0, 0.01, 90.0, 0.02) / ((ratio - 1) * 0.64 * math.pi), 9)
+    1.0
+    >>> laminar_bend_k(10.0, 0.01, 90.0, 0.02)   # Dean 5: no extra loss
+    0.0
+
+    References
+    ----------
+    .. [1] White, C. M. "Streamline Flow through Curved Pipes." Proc. R. Soc. Lond. A 123, 1929, 645-663.
+    """
+    f_straight = 64.0 / re
+    f_curved = helical_laminar_fd_White(Re=re, Di=d_m, Dc=2.0 * rc_m)
+    return (f_curved - f_straight) * math.radians(angle_deg) * rc_m / d_m
+
+
 def fitting_body_coefficients(shape: str, d_m: float) -> tuple[float, float]:
     r"""Darby 3-K coefficients of a fitting body: :math:`K = k_1/Re + k_\infty`.
 
@@ -140,17 +200,26 @@ def fitting_body_coefficients(shape: str, d_m: float) -> tuple[float, float]:
     return n * (Darby3K(Re=1.0, name=name, NPS=nps) - c), n * c
 
 
-def entrance_coefficients(edge: str, d_m: float) -> tuple[float, float]:
+#: Wall of a projecting outlet pipe when none is given, as a fraction of its bore: a thin wall (a stated
+#: default; Rennels' coefficient is 0.92 there, against 0.57 for a flush or thick-walled outlet).
+PROJECTING_WALL_OF_BORE = 0.01
+
+
+def entrance_coefficients(edge: str, d_m: float, wall_m: float | None = None) -> tuple[float, float]:
     r"""Loss of flow entering a line from a reservoir: :math:`K = 160/Re + k_\infty`.
 
     Parameters
     ----------
     edge : str
         'sharp' (flush, square edge: ``fluids.entrance_sharp``), 'rounded' (radius 0.15 D,
-        ``fluids.entrance_rounded``) or 'projecting' (``fluids.entrance_distance`` at a wall
-        thickness of 0.05 D).
+        ``fluids.entrance_rounded``) or 'projecting' (a pipe standing into the reservoir, a
+        re-entrant or Borda inlet: ``fluids.entrance_distance``, Rennels' method, which depends on
+        the pipe's wall thickness).
     d_m : float
         Bore, [m].
+    wall_m : float, optional
+        Wall thickness of a projecting pipe, [m]; without it a thin wall,
+        ``PROJECTING_WALL_OF_BORE`` x bore.
 
     Returns
     -------
@@ -158,17 +227,26 @@ def entrance_coefficients(edge: str, d_m: float) -> tuple[float, float]:
         160 (the laminar term of Hooper's 2-K entrance loss, from memory of Hooper 1988) and the
         turbulent coefficient, [-].
 
+    Notes
+    -----
+    Rennels: K = 1.12 - 22 t/d + 216 (t/d)^2 + 80 (t/d)^3 for t/d < 0.05, the flush value 0.57 above:
+    a thick-walled projecting pipe loses as little as a flush one.
+
     Examples
     --------
-    A sharp flush entrance has the turbulent coefficient 0.57 (``fluids.entrance_sharp``):
+    A sharp flush entrance has the turbulent coefficient 0.57 (``fluids.entrance_sharp``); a thin
+    projecting one 0.92, Rennels' formula at t/d = 0.01: 1.12 - 0.22 + 0.0216 + 0.00008:
 
     >>> entrance_coefficients("sharp", 0.01)
     (160.0, 0.57)
+    >>> round(entrance_coefficients("projecting", 0.01)[1], 5)
+    0.92168
     """
     if edge == "rounded":
         k_inf = entrance_rounded(Di=d_m, rc=0.15 * d_m)
     elif edge == "projecting":
-        k_inf = entrance_distance(Di=d_m, t=0.05 * d_m)
+        t = wall_m if wall_m is not None else PROJECTING_WALL_OF_BORE * d_m
+        k_inf = entrance_distance(Di=d_m, t=t, method="Rennels")
     else:
         k_inf = entrance_sharp()
     return 160.0, k_inf
@@ -201,16 +279,17 @@ def exit_k(re: float) -> float:
     return 2.0 + (re - RE_LAMINAR) / (RE_TURBULENT - RE_LAMINAR) * (k_turb - 2.0)
 
 
-def contraction_k(d1_m: float, d2_m: float, re: float) -> float:
+def contraction_k(d1_m: float, d2_m: float, re_upstream: float) -> float:
     """Sharp contraction from bore ``d1_m`` to the smaller ``d2_m`` by Hooper's method.
 
     Parameters
     ----------
     d1_m, d2_m : float
         Upstream (larger) and downstream bores, [m].
-    re : float
-        Reynolds number passed to ``fluids.contraction_sharp``; Hooper's method is defined with
-        the Reynolds number of the upstream (larger) bore (see the fluids docstring).
+    re_upstream : float
+        Reynolds number of the upstream (larger) bore: Hooper's method, as
+        ``fluids.contraction_sharp`` implements it, takes the Reynolds number and friction factor
+        of the original pipe; it also switches between its laminar and turbulent forms there.
 
     Returns
     -------
@@ -225,7 +304,7 @@ def contraction_k(d1_m: float, d2_m: float, re: float) -> float:
     >>> contraction_k(0.012, 0.006, 1658.0) == contraction_sharp(Di1=0.012, Di2=0.006, Re=1658.0, method="Hooper")
     True
     """
-    return contraction_sharp(Di1=d1_m, Di2=d2_m, Re=re, method="Hooper")
+    return contraction_sharp(Di1=d1_m, Di2=d2_m, Re=re_upstream, method="Hooper")
 
 
 def expansion_k(d1_m: float, d2_m: float, re_upstream: float) -> float:

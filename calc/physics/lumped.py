@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import math
 
-__all__ = ["STEADY_TOL_K", "STEADY_MAX_C", "solve_steady", "warmup"]
+__all__ = ["STEADY_TOL_K", "STEADY_MAX_C", "solve_steady", "warmup", "adiabatic_warmup", "seconds_to_reach"]
 
 #: Tolerance of the steady-temperature solve: the final bracket is narrower than this, [K].
 STEADY_TOL_K = 0.05
@@ -228,3 +228,53 @@ def warmup(t0_c: float, power_w: float, rejected_w, heat_capacity_j_k: float, li
         note = f"the curve stops at {curve[-1]['t_s']:.0f} s, past {curve_stop_c:.0f} C"
     return {"curve": curve, "seconds_to_limit": reached, "final_temp_c": final, "levels_off_c": levels,
             "message": _warmup_message(reached, levels, limit_c, search_s), "curve_note": note}
+
+
+def adiabatic_warmup(t0_c: float, power_w: float, heat_capacity_j_k: float, t_s: float) -> float:
+    r"""Temperature of a lump that keeps all the heat it gets: :math:`T = T_0 + P t / C`.
+
+    Parameters
+    ----------
+    t0_c : float
+        Starting temperature, [C].
+    power_w : float
+        Heat into the lump, [W] (constant).
+    heat_capacity_j_k : float
+        Its heat capacity, [J/K]; > 0.
+    t_s : float
+        Time, [s].
+
+    Returns
+    -------
+    T : float
+        [C].
+
+    Notes
+    -----
+    The exact solution of :math:`C\, dT/dt = P` with no heat leaving: an upper bound on the temperature of
+    a lump that also loses some heat.
+
+    Examples
+    --------
+    2833 W into 750 J/K for 10 s from 80 C: 80 + 28330 / 750 = 117.77 C (exact):
+
+    >>> round(adiabatic_warmup(80.0, 2833.0, 750.0, 10.0), 2)
+    117.77
+    """
+    return t0_c + power_w * t_s / heat_capacity_j_k
+
+
+def seconds_to_reach(t0_c: float, limit_c: float, power_w: float, heat_capacity_j_k: float) -> float | None:
+    """Time for an adiabatic lump (:func:`adiabatic_warmup`) to reach ``limit_c`` [s]; 0 when it starts at or
+    above it, None without heat.
+
+    Examples
+    --------
+    >>> seconds_to_reach(80.0, 125.0, 2833.0, 750.0) == 45.0 * 750.0 / 2833.0
+    True
+    """
+    if t0_c >= limit_c:
+        return 0.0
+    if power_w <= 0.0:
+        return None
+    return (limit_c - t0_c) * heat_capacity_j_k / power_w

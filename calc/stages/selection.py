@@ -14,7 +14,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from ..data.practice import INLET_MIN_BAR, VELOCITY_BANDS_M_S
+from ..data.practice import INLET_FLOOR_BAR, INLET_MIN_BAR, VELOCITY_BANDS_M_S
 from ..data.tables import hose_classes
 from ..system.circuit import BAR
 from ..system.line import compile_line, line_flow
@@ -44,6 +44,7 @@ class _Need:
     t_max: float
     t_min: float
     p_min: float
+    other_feed_bar: tuple = ()
 
 
 def _drops(parts, hose_idx, bore, flows, states) -> list[float]:
@@ -65,10 +66,12 @@ def _judge(cls, row, need: _Need, dps, v: float, conditions) -> tuple[list, list
         reasons.append(f"drop {dp_max:.2f} bar exceeds the {need.budget:g} bar budget")
     j = need.index
     if need.last_feed:
-        p_in = min(c["pump_inlet_bar"] + c["lines"][j]["pressure_drop_bar"] - d for c, d in zip(conditions, dps))
+        p_in = min(-(o + d) for o, d in zip(need.other_feed_bar, dps))
         if p_in < INLET_MIN_BAR:
             failed.append("pump inlet")
-            reasons.append(f"pump inlet {p_in:.2f} bar gauge is below {INLET_MIN_BAR} bar")
+            shown = max(p_in, INLET_FLOOR_BAR)
+            reasons.append(f"the pump would starve: its inlet would fall below the {INLET_MIN_BAR} bar limit"
+                           + (f" (to {shown:.2f} bar gauge)" if shown > INLET_FLOOR_BAR else " (to a vacuum)"))
     req = need.required
     if need.role == "return":
         req = max([need.required] + [c["lines"][j]["outlet_bar"] + d for c, d in zip(conditions, dps)])
@@ -92,8 +95,6 @@ def _judge(cls, row, need: _Need, dps, v: float, conditions) -> tuple[list, list
     if need.role == "feed" and need.p_min < 0 and cls.get("suction") is False:
         failed.append("suction")
         reasons.append("not a suction hose; the line runs below atmospheric")
-    if not failed and v < lo_v:
-        reasons.append(f"velocity {v:.2f} m/s is below the {lo_v:g}-{hi_v:g} m/s band: larger than needed")
     return failed, reasons
 
 
@@ -114,8 +115,8 @@ def rank_candidates(ln, need: _Need, conditions, states) -> list:
     hose_idx = [i for i, p in enumerate(parts) if p["kind"] == "hose"]
     if not hose_idx:
         return []
-    lo_v = VELOCITY_BANDS_M_S[need.role][0]
-    flows = [c["circuit_flow_lpm"] / 60000.0 for c in conditions]
+    lo_v, hi_v = VELOCITY_BANDS_M_S[need.role]
+    flows = [c["demand_flow_lpm"] / 60000.0 for c in conditions]
     q_max = max(flows)
     hydro = {}  # bore -> drop per condition, bar
     out = []
@@ -127,14 +128,28 @@ def rank_candidates(ln, need: _Need, conditions, states) -> list:
             dps = hydro[bore]
             v = q_max / (0.25 * math.pi * (bore * 1e-3) ** 2)
             failed, reasons = _judge(cls, row, need, dps, v, conditions)
-            verdict = "fail" if failed else ("caution" if v < lo_v else "ok")
+            verdict = "fail" if failed else "ok"
             out.append({"class": cls["class"], "dash": row["dash"], "bore_mm": bore, "verdict": verdict,
                         "failed": failed, "reasons": reasons, "velocity_max_m_s": v, "pressure_drop_bar": max(dps),
                         "working_bar": row["working_bar"], "min_bend_radius_mm": row["min_bend_radius_mm"],
                         "light_rank": cls["light_rank"], "source": row["source"]})
+    _mark_oversized(out, lo_v, hi_v)
     out.sort(key=lambda c: (c["verdict"] == "fail", len(c["failed"]) if c["failed"] else 0, c["bore_mm"],
                             c["light_rank"], c["class"]))
     return out
+
+
+def _mark_oversized(cands: list, lo_v: float, hi_v: float) -> None:
+    """A passing candidate slower than the band is larger than needed only when a smaller size of its
+    class passes too; the smallest that passes is never called oversized."""
+    for c in cands:
+        if c["verdict"] != "ok" or c["velocity_max_m_s"] >= lo_v:
+            continue
+        smaller = [o for o in cands if o["class"] == c["class"] and o["verdict"] != "fail" and o["bore_mm"] < c["bore_mm"]]
+        if smaller:
+            c["verdict"] = "caution"
+            c["reasons"].append(f"velocity {c['velocity_max_m_s']:.2f} m/s is below the {lo_v:g}-{hi_v:g} m/s band: "
+                                f"larger than needed (-{max(smaller, key=lambda o: o['bore_mm'])['dash']} passes too)")
 
 
 def selection_stage(job, circuit, ratings) -> SelectionSection:
@@ -151,6 +166,9 @@ def selection_stage(job, circuit, ratings) -> SelectionSection:
     model = circuit.model
     states = [model.state(c["fluid_temp_c"]) for c in conditions]
     feed = model.by_role["feed"]
+    demand = [c["demand_flow_lpm"] / 60000.0 for c in conditions]
+    feed_drop = {ln.index: [line_flow(ln.segs, q, st.nu_m2_s, st.rho_kg_m3, detail=False)[0] / BAR
+                            for q, st in zip(demand, states)] for ln in feed}
     out = []
     for ln, rating in zip(model.lines, ratings.ratings):
         route = rating["route"]
@@ -159,6 +177,7 @@ def selection_stage(job, circuit, ratings) -> SelectionSection:
                      tuple(b["radius_mm"] for p in ln.parts if p["kind"] == "hose" for b in p.get("bends") or ()),
                      route["tightest_radius_mm"] if route else None,
                      bool(ln.role == "feed" and feed and feed[-1] is ln),
-                     rating["temp_max_c"], rating["temp_min_c"], rating["pressure_min_bar"])
+                     rating["temp_max_c"], rating["temp_min_c"], rating["pressure_min_bar"],
+                     tuple(sum(d[i] for k, d in feed_drop.items() if k != ln.index) for i in range(len(conditions))))
         out.append(rank_candidates(ln, need, conditions, states))
     return SelectionSection(tuple(out))

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 
 from ..data.practice import CURVE_OVER_LIMIT_K
 from ..model.result import check, worst_verdict
-from ..physics.lumped import STEADY_MAX_C, STEADY_TOL_K, solve_steady, warmup
+from ..physics.lumped import STEADY_MAX_C, STEADY_TOL_K, adiabatic_warmup, seconds_to_reach, solve_steady, warmup
 from ..system.circuit import LPM
 from ..system.thermal_model import ThermalModel
 
@@ -21,9 +21,13 @@ __all__ = ["METHOD", "ThermalSection", "thermal_stage", "lowest_part_limit"]
 METHOD = [
     "Temperature rise across a part: dT = dp / (rho cp), the whole pressure loss turned into heat in the "
     "fluid (elevation excluded).",
-    "Heat generated: at neutral, circuit flow x pump outlet pressure + feed-line friction loss x flow + "
-    "relief flow x relief setting when the relief is open; at full lock, delivered flow x relief setting. "
-    "With pump.overall_efficiency given, the pump's losses Q p_out (1/eta - 1) are added in full.",
+    "Heat generated: the pump's whole geometric flow (displacement x pump speed) times the pressure it works "
+    "against (outlet plus the flow-control metering drop; the relief setting at full lock) less its inlet "
+    "pressure, split into the internal leakage (1 - volumetric efficiency), the flow the flow control "
+    "recirculates or the relief passes, and the flow through the circuit (metering orifice, lines, gear and "
+    "feed line). With pump.overall_efficiency given, the mechanical losses on top, hydraulic input x "
+    "(1/eta_m - 1) with eta_m = overall / volumetric efficiency, are added in full; the leakage is not counted "
+    "twice.",
     "Line rejection: inside film (Nu = 3.66 laminar, Gnielinski turbulent, linear in Re between 2000 and "
     "4000), wall conduction ln(do/di)/(2 pi k) and outside film in series; outside, natural convection by "
     "Churchill-Chu (horizontal cylinder) and forced convection by Churchill-Bernstein (cylinder in cross "
@@ -41,11 +45,12 @@ METHOD = [
     f"Steady temperature: duty-weighted heat generated = duty-weighted heat rejected at one bulk "
     f"temperature, every operating point re-solved at the trial temperature; bracketed regula falsi "
     f"(Illinois) between the air temperature and {STEADY_MAX_C:g} C, to a bracket under {STEADY_TOL_K} K.",
-    "Full-lock hold: one well-mixed lump of the whole fluid volume (lines + other_volume_l), rho cp V, "
-    "stepped by the exact solution of the locally linearised balance from the steady temperature (or the full-lock point's own temperature when there is "
-    "no steady temperature). The lines and a flow-through cooler carry no flow at full lock, so only the "
-    "reservoir rejects heat; the fluid in the pump heats faster than this average, so the time shown is "
-    "an upper estimate.",
+    "Full-lock hold: at full lock no fluid moves outside the pump, so the fluid in the pump (thermal."
+    "pump_volume_l) and the part of its body that warms with it (thermal.pump_heat_capacity_j_k) take the "
+    "whole heat as one lump, with no heat leaving it (conservative): T = T0 + P t / C, the time that matters. "
+    "Secondary: the whole fluid volume (lines + other_volume_l) as one well-mixed lump, rho cp V, stepped by the "
+    "exact solution of the locally linearised balance, with only the reservoir rejecting heat. Both start "
+    "from the steady temperature (or the full-lock point's own temperature when there is none).",
     "Cooler advice: the rating (or tube length) that brings the steady temperature down to the fluid "
     "limit less the margin, computed with no cooler fitted.",
 ]
@@ -161,8 +166,8 @@ def _condition_heat(model: ThermalModel, job_conds, conditions) -> list[dict]:
     for cond, op in zip(job_conds, conditions):
         b = model.balance(cond, op["fluid_temp_c"], op=op, detail=True)
         out.append({"heat_w": b["heat_w"], "heat_hydraulic_w": b["heat_hydraulic_w"],
-                    "heat_pump_loss_w": b["heat_pump_loss_w"], "heat_rejected_w": b["rejection"]["total_w"],
-                    "heat_rejected_detail": b["rejection"]})
+                    "heat_pump_loss_w": b["heat_pump_loss_w"], "heat_detail": b["heat_detail"],
+                    "heat_rejected_w": b["rejection"]["total_w"], "heat_rejected_detail": b["rejection"]})
     return out
 
 
@@ -200,6 +205,47 @@ def _steady(model: ThermalModel, duty: list, limits: dict, out: dict, checks: li
     return steady
 
 
+def _bulk_rejection(model: ThermalModel, fl_cond, q_fl: float):
+    """Heat the whole fluid rejects at full lock, as a function of its temperature."""
+    if q_fl <= 0.0:  # no flow in the lines or a cooler: only the reservoir rejects, linear in T (fast path)
+        ua_res = model.th["reservoir_area_m2"] * model.th["reservoir_h_w_m2k"]
+        return lambda t: ua_res * (t - model.t_air_c)
+    return lambda t: model.rejection(t, q_fl, fl_cond["air_speed_m_s"])["total_w"]
+
+
+def _pump_lump(model: ThermalModel, t0: float, power: float, limit: float) -> dict:
+    """The fluid in the pump with the part of its body that warms with it: one lump that takes the whole
+    full-lock heat, since no fluid moves outside the pump (``calc.physics.lumped.adiabatic_warmup``)."""
+    st = model.circuit.state(t0)
+    cap = st.rho_kg_m3 * st.cp_j_kgk * model.th["pump_volume_l"] * 1e-3 + model.th["pump_heat_capacity_j_k"]
+    return {"cap": cap, "seconds": seconds_to_reach(t0, limit, power, cap), "rate": power / cap}
+
+
+def _full_lock_curve(t0, power, pump_cap, bulk_curve) -> list[dict]:
+    return [{"t_s": p["t_s"], "pump_temp_c": adiabatic_warmup(t0, power, pump_cap, p["t_s"]),
+             "bulk_temp_c": p["temp_c"]} for p in bulk_curve]
+
+
+def _full_lock_check(start_from, t0, power, pump, bulk_wu, model, limit) -> dict:
+    vol = model.volume_m3 * 1e3
+    if pump["seconds"] is None:
+        return check("full-lock hold", "ok", f"starting from {start_from} ({t0:.0f} C), the fluid in the pump does "
+                                             f"not reach its limit {limit:.0f} C at full lock (no heat)")
+    caution = "do not hold the wheel at full lock for more than a few seconds (common practice)"
+    if pump["seconds"] <= 0.0:
+        return check("full-lock hold", "caution", f"{caution}: the fluid already starts at {t0:.0f} C ({start_from}), "
+                                                  f"at or above its limit {limit:.0f} C, and heats at "
+                                                  f"{pump['rate']:.1f} K/s in the pump at full lock ({power:.0f} W)")
+    bulk = bulk_wu["seconds_to_limit"]
+    bulk_text = (f"mixed through all {vol:.2f} L it would take {bulk:.0f} s" if bulk is not None else
+                 f"mixed through all {vol:.2f} L {bulk_wu['message'].replace('the fluid ', 'it ', 1)}")
+    return check("full-lock hold", "caution",
+                 f"{caution}: starting from "
+                 f"{start_from} ({t0:.0f} C), the fluid in the pump reaches its limit {limit:.0f} C after "
+                 f"{pump['seconds']:.0f} s ({power:.0f} W into {model.th['pump_volume_l']:.2f} L and the pump body, "
+                 f"{pump['rate']:.1f} K/s); {bulk_text}")
+
+
 def _full_lock(model: ThermalModel, job_conds, steady, limit: float, out: dict, checks: list) -> None:
     circuit = model.circuit
     fl_cond, fl_from = _full_lock_condition(job_conds)
@@ -208,36 +254,21 @@ def _full_lock(model: ThermalModel, job_conds, steady, limit: float, out: dict, 
     op = circuit.operating_point(fl_cond, t_c=t0, detail=False)
     power = sum(model.heat(op))
     cap = circuit.state(t0).rho_kg_m3 * model.volume_m3 * circuit.fluid["specific_heat_j_kgk"]
-    q_fl = op["circuit_flow_lpm"] * LPM
-    hold = model.th["full_lock_hold_s"]
-    if cap <= 0.0:
-        wu = {"curve": [], "seconds_to_limit": None, "levels_off_c": None, "curve_note": "",
-              "message": "no fluid volume listed (give thermal.other_volume_l): the warm-up cannot be estimated"}
-    else:
-        if q_fl <= 0.0:  # no flow in the lines or a cooler: only the reservoir rejects, linear in T (fast path)
-            ua_res = model.th["reservoir_area_m2"] * model.th["reservoir_h_w_m2k"]
-
-            def rejected(t):
-                return ua_res * (t - model.t_air_c)
-        else:
-            def rejected(t):
-                return model.rejection(t, q_fl, fl_cond["air_speed_m_s"])["total_w"]
-        wu = warmup(t0, power, rejected, cap, limit, hold, curve_stop_c=limit + CURVE_OVER_LIMIT_K)
+    pump = _pump_lump(model, t0, power, limit)
+    stop = limit + CURVE_OVER_LIMIT_K
+    span = model.th["full_lock_hold_s"] if pump["seconds"] is None else min(
+        model.th["full_lock_hold_s"], seconds_to_reach(t0, stop, power, pump["cap"]) or 0.0) or 1.0
+    bulk = warmup(t0, power, _bulk_rejection(model, fl_cond, op["circuit_flow_lpm"] * LPM), cap, limit, span,
+                  curve_stop_c=None) if cap > 0.0 else {"curve": [], "seconds_to_limit": None, "levels_off_c": None,
+                                                        "message": "no fluid volume listed outside the pump"}
     out["full_lock"] = {"condition": fl_from, "start_temp_c": t0, "start_from": start_from, "heat_w": power,
-                        "volume_l": model.volume_m3 * 1e3, "heat_capacity_j_k": cap,
-                        "levels_off_c": wu["levels_off_c"], "message": wu["message"],
-                        "curve_note": wu["curve_note"]}
-    out["full_lock_seconds_to_limit"] = tl = wu["seconds_to_limit"]
-    out["full_lock_curve"] = wu["curve"]
-    if cap <= 0.0:
-        checks.append(check("full-lock hold", "caution", wu["message"]))
-    elif tl is not None and tl < hold:
-        checks.append(check("full-lock hold", "caution",
-                            f"do not hold the wheel at full lock for long: starting from {start_from} "
-                            f"({t0:.0f} C), {wu['message']} ({power:.0f} W into {model.volume_m3 * 1e3:.2f} L)"))
-    else:
-        checks.append(check("full-lock hold", "ok", f"starting from {start_from} ({t0:.0f} C), {wu['message']} "
-                                                    f"within a {hold:.0f} s hold"))
+                        "pump_volume_l": model.th["pump_volume_l"], "pump_heat_capacity_j_k": pump["cap"],
+                        "pump_rate_k_s": pump["rate"], "volume_l": model.volume_m3 * 1e3, "heat_capacity_j_k": cap,
+                        "bulk_seconds_to_limit": bulk["seconds_to_limit"], "levels_off_c": bulk["levels_off_c"],
+                        "message": bulk["message"]}
+    out["full_lock_seconds_to_limit"] = pump["seconds"]
+    out["full_lock_curve"] = _full_lock_curve(t0, power, pump["cap"], bulk["curve"])
+    checks.append(_full_lock_check(start_from, t0, power, pump, bulk, model, limit))
 
 
 def _cooler_advice(model: ThermalModel, duty: list, target: float, steady, out: dict, checks: list) -> None:

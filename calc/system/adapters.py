@@ -166,7 +166,7 @@ def plan_adapters(port: dict, line_end: dict) -> dict:
 
     >>> p = plan_adapters({"thread": "M16x1.5", "seal": "metric-oring"}, {"family": "jic-37", "dash": 6})
     >>> p["ok"], [a["name"] for a in p["adapters"]], p["adapters"][0]["working_bar"]
-    (True, ['M16x1.5 metric O-ring stud (ISO 6149) male to 37 deg flare -6 (SAE J514) male'], 250)
+    (True, ['M16x1.5 metric O-ring stud (ISO 6149) male to 37 deg flare -6 (SAE J514) male'], 250.0)
 
     A 3/8 in inverted-flare tube nut fits a 5/8-18 inverted-flare port directly:
 
@@ -351,7 +351,7 @@ def adapter_parts(plan: dict) -> list[dict]:
     --------
     >>> plan = plan_adapters({"thread": "3/4-16 UNF", "seal": "oring-boss"}, {"family": "jic-37", "dash": 6})
     >>> adapter_parts(plan)
-    [{'kind': 'fitting', 'bore_mm': 7.1, 'shape': 'straight', 'working_bar': 345, 'family': 'jic-37', 'dash': 6}]
+    [{'kind': 'fitting', 'bore_mm': 7.1, 'shape': 'straight', 'working_bar': 310.3, 'family': 'jic-37', 'dash': 6}]
     """
     if not plan.get("ok"):
         raise ValueError(plan.get("message", "the adapter plan was refused"))

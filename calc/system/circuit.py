@@ -13,15 +13,24 @@ The circuit model (stated assumptions):
   pressure lines stand at the relief setting and the whole delivered flow
   crosses the relief, which discharges inside the pump (so the feed line
   carries only the circuit flow);
-* the gear valve drop scales with flow squared (orifice flow) from the
-  stated neutral drop.
+* a feed line that cannot pass the circuit flow with the pump inlet above its limit
+  (``calc.data.practice.INLET_MIN_BAR``) starves the pump: the circuit then gets only the
+  flow the feed line passes at the limit; no pressure is reported below a vacuum
+  (``INLET_FLOOR_BAR``);
+* the pump works against its outlet pressure plus the flow-control valve's metering
+  drop, which scales as flow squared below the flow-control setting.
+* the gear valve at neutral is an orifice whose loss rises when the fluid is
+  cold (``calc.physics.valve``), fitted to its measured point (or two points).
 """
 from __future__ import annotations
 
 from dataclasses import dataclass
 
+from ..data.practice import INLET_FLOOR_BAR, INLET_MIN_BAR
 from ..model.fluid import state_of
-from ..physics.pump import delivered_flow_m3_s
+from ..model.job import gear_constants
+from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa
+from ..physics.valve import valve_drop_pa
 from .line import compile_line, line_flow
 
 __all__ = ["LPM", "BAR", "CompiledLine", "Circuit", "solve_flow"]
@@ -80,6 +89,7 @@ class Circuit:
         self.fluid = job.fluid
         self.pump = job.pump
         self.gear = job.gear
+        self.gear_a, self.gear_b = gear_constants(job.gear, job.fluid)
         self.lines = tuple(CompiledLine(ln.index, ln.name, ln.role, tuple(parts), tuple(compile_line(parts)))
                            for ln, parts in zip(job.lines, built_parts))
         self.by_role = {r: [ln for ln in self.lines if ln.role == r] for r in ("pressure", "return", "feed")}
@@ -95,17 +105,16 @@ class Circuit:
         return delivered_flow_m3_s(p["displacement_cc_rev"], engine_rpm, p["pulley_ratio"],
                                    p["volumetric_efficiency"], p["flow_limit_lpm"] * LPM)
 
-    def gear_drop_pa(self, q_m3_s: float) -> float:
-        """The gear valve's drop at neutral, scaled as flow squared from its stated point, [Pa]."""
-        q0 = self.gear["at_flow_lpm"] * LPM
-        return self.gear["neutral_drop_bar"] * BAR * (q_m3_s / q0) ** 2
+    def gear_drop_pa(self, q_m3_s: float, st) -> float:
+        """The gear valve's drop at neutral (``calc.physics.valve``: laminar and inertial parts), [Pa]."""
+        return valve_drop_pa(q_m3_s, st.nu_m2_s, st.rho_kg_m3, self.gear_a, self.gear_b)
 
     def circuit_drop_pa(self, q_m3_s: float, st, per_line: dict | None = None) -> float:
         """Pump outlet gauge pressure needed to push ``q_m3_s`` round at neutral, Pa.
 
         ``per_line``, if given, receives each pressure and return line's drop by line index.
         """
-        total = self.gear_drop_pa(q_m3_s)
+        total = self.gear_drop_pa(q_m3_s, st)
         for role in ("pressure", "return"):
             for ln in self.by_role[role]:
                 dp = line_flow(ln.segs, q_m3_s, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
@@ -114,21 +123,43 @@ class Circuit:
                     per_line[ln.index] = dp
         return total
 
+    def feed_inlet_pa(self, q_m3_s: float, st) -> float:
+        """Pump inlet gauge pressure with ``q_m3_s`` drawn through the feed lines from the reservoir, Pa."""
+        p = 0.0
+        for ln in self.by_role["feed"]:
+            p -= line_flow(ln.segs, q_m3_s, st.nu_m2_s, st.rho_kg_m3, detail=False)[0]
+        return p
+
+    def _starved_flow(self, q_m3_s: float, st) -> float | None:
+        """The flow the feed lines pass with the inlet at its limit, when ``q_m3_s`` would take it lower."""
+        limit = INLET_MIN_BAR * BAR
+        if not self.by_role["feed"] or self.feed_inlet_pa(q_m3_s, st) >= limit:
+            return None
+        if self.feed_inlet_pa(0.0, st) < limit:
+            return 0.0
+        return solve_flow(lambda q: limit - self.feed_inlet_pa(q, st), q_m3_s)
+
     # -- an operating point ----------------------------------------------------
-    def _flows(self, cond: dict, st) -> tuple:
-        """(pump flow, uncapped, capped, line flow, relief flow, outlet pressure, relief open, drops)."""
+    def _flows(self, cond, st) -> dict:
+        """Pump and circuit flows, outlet pressure and relief at an operating point, starvation included."""
         relief_pa = self.pump["relief_bar"] * BAR
         q_pump, q_uncapped, capped = self.pump_flow(cond["engine_rpm"])
-        dps: dict = {}
+        f = {"q_pump": q_pump, "q_uncapped": q_uncapped, "capped": capped, "q_relief": 0.0, "relief_open": False,
+             "need_pa": self.circuit_drop_pa(q_pump, st), "starved_q": None}
         if cond["full_lock"]:
-            self.circuit_drop_pa(0.0, st, dps)
-            return q_pump, q_uncapped, capped, 0.0, q_pump, relief_pa, True, dps
-        p_out = self.circuit_drop_pa(q_pump, st, dps)
-        if p_out <= relief_pa:
-            return q_pump, q_uncapped, capped, q_pump, 0.0, p_out, False, dps
-        q_lines = solve_flow(lambda q: self.circuit_drop_pa(q, st) - relief_pa, q_pump)
-        self.circuit_drop_pa(q_lines, st, dps)
-        return q_pump, q_uncapped, capped, q_lines, q_pump - q_lines, relief_pa, True, dps
+            f.update(q_lines=0.0, q_relief=q_pump, p_out=relief_pa, relief_open=True)
+        elif f["need_pa"] <= relief_pa:
+            f.update(q_lines=q_pump, p_out=f["need_pa"])
+        else:
+            q_lines = solve_flow(lambda q: self.circuit_drop_pa(q, st) - relief_pa, q_pump)
+            f.update(q_lines=q_lines, q_relief=q_pump - q_lines, p_out=relief_pa, relief_open=True)
+        f["q_demand"] = f["q_lines"]
+        starved = self._starved_flow(f["q_lines"], st)
+        if starved is not None:
+            f["starved_q"] = starved
+            if not cond["full_lock"]:
+                f.update(q_lines=starved, q_relief=0.0, relief_open=False, p_out=self.circuit_drop_pa(starved, st))
+        return f
 
     def operating_point(self, cond, t_c: float | None = None, detail: bool = True) -> dict:
         """Solve one operating point.
@@ -145,14 +176,30 @@ class Circuit:
         """
         t = cond["fluid_temp_c"] if t_c is None else t_c
         st = self.state(t)
-        q_pump, q_uncapped, capped, q_lines, q_relief, p_out, relief_open, dps = self._flows(cond, st)
+        f = self._flows(cond, st)
+        q_lines, p_out = f["q_lines"], f["p_out"]
+        dps: dict = {}
+        self.circuit_drop_pa(q_lines, st, dps)
+        p = self.pump
+        metering = metering_drop_pa(p["metering_drop_bar"] * BAR, q_lines, p["flow_limit_lpm"] * LPM)
         res = {"name": cond["name"], "engine_rpm": cond["engine_rpm"], "fluid_temp_c": t,
                "full_lock": cond["full_lock"], "viscosity_cst": st.nu_m2_s * 1e6,
-               "density_kg_m3": st.rho_kg_m3, "pump_flow_lpm": q_pump / LPM,
-               "pump_flow_uncapped_lpm": q_uncapped / LPM, "flow_control_limiting": capped,
-               "circuit_flow_lpm": q_lines / LPM, "relief_flow_lpm": q_relief / LPM,
-               "relief_open": relief_open, "pump_outlet_bar": p_out / BAR,
-               "gear_drop_bar": (0.0 if cond["full_lock"] else self.gear_drop_pa(q_lines)) / BAR}
+               "density_kg_m3": st.rho_kg_m3,
+               "pump_geometric_lpm": geometric_flow_m3_s(p["displacement_cc_rev"], cond["engine_rpm"],
+                                                         p["pulley_ratio"]) / LPM,
+               "pump_flow_lpm": f["q_pump"] / LPM,
+               "pump_flow_uncapped_lpm": f["q_uncapped"] / LPM, "flow_control_limiting": f["capped"],
+               "circuit_flow_lpm": q_lines / LPM, "demand_flow_lpm": f["q_demand"] / LPM,
+               "relief_flow_lpm": f["q_relief"] / LPM, "relief_open": f["relief_open"],
+               "circuit_need_bar": f["need_pa"] / BAR, "pump_outlet_bar": p_out / BAR,
+               "metering_drop_bar": metering / BAR, "pump_internal_bar": (p_out + metering) / BAR,
+               "gear_drop_bar": (0.0 if cond["full_lock"] else self.gear_drop_pa(q_lines, st)) / BAR}
+        res.update(self._line_results(q_lines, st, p_out, dps, detail))
+        res["pump_starved"] = f["starved_q"] is not None
+        res["feed_limit_flow_lpm"] = None if f["starved_q"] is None else f["starved_q"] / LPM
+        return res
+
+    def _line_results(self, q_lines: float, st, p_out: float, dps: dict, detail: bool) -> dict:
         lines_out = [None] * len(self.lines)
         p = p_out  # pressure side: node pressures from the pump outlet forward
         for ln in self.by_role["pressure"]:
@@ -163,15 +210,15 @@ class Circuit:
             dp = dps[ln.index]
             lines_out[ln.index] = self._line(ln, q_lines, st, p + dp, detail, dp)
             p += dp
-        res["gear_outlet_bar"] = p / BAR
+        out = {"gear_outlet_bar": p / BAR}
         p = 0.0  # feed side: from the reservoir (0 bar) forward to the pump inlet
         for ln in self.by_role["feed"]:
             lines_out[ln.index] = r = self._line(ln, q_lines, st, p, detail)
             p = r["outlet_bar"] * BAR
-        res["pump_inlet_bar"] = p / BAR
-        res["has_feed_line"] = bool(self.by_role["feed"])
-        res["lines"] = lines_out
-        return res
+        out["pump_inlet_bar"] = max(p / BAR, INLET_FLOOR_BAR)
+        out["has_feed_line"] = bool(self.by_role["feed"])
+        out["lines"] = lines_out
+        return out
 
     def _line(self, ln: CompiledLine, q: float, st, p_in_pa: float, detail: bool, dp: float | None = None) -> dict:
         if not detail:  # the thermal iteration needs only the drops

@@ -14,9 +14,9 @@ from __future__ import annotations
 import math
 
 from ..physics.convection import G
-from ..physics.friction import friction_factor, regime
+from ..physics.friction import RE_LAMINAR, friction_factor, regime
 from ..physics.losses import (bend_loss_coefficients, contraction_k, device_drop_pa, entrance_coefficients,
-                              exit_k, expansion_k, fitting_body_coefficients)
+                              exit_k, expansion_k, fitting_body_coefficients, laminar_bend_k)
 
 __all__ = ["Segment", "part_bore_mm", "compile_line", "line_flow"]
 
@@ -33,16 +33,16 @@ class Segment:
     """
 
     __slots__ = ("index", "kind", "d_m", "length_m", "eps_m", "bends", "rise_m", "shape",
-                 "dp0_pa", "q0_m3_s", "nu0_m2_s", "scaling", "edge", "name",
+                 "dp0_pa", "q0_m3_s", "nu0_m2_s", "scaling", "edge", "name", "wall_m",
                  "area_m2", "eps_d", "l_over_d", "bend_a", "bend_b", "k1", "k_inf")
 
     def __init__(self, index, kind, d_m=None, length_m=0.0, eps_m=0.0, bends=(), rise_m=0.0,
                  shape=None, dp0_pa=0.0, q0_m3_s=1.0, nu0_m2_s=None, scaling="inertial", edge="sharp",
-                 name=""):
+                 name="", wall_m=None):
         self.index, self.kind, self.d_m, self.length_m, self.eps_m = index, kind, d_m, length_m, eps_m
         self.bends, self.rise_m, self.shape = tuple(bends), rise_m, shape
         self.dp0_pa, self.q0_m3_s, self.nu0_m2_s, self.scaling = dp0_pa, q0_m3_s, nu0_m2_s, scaling
-        self.edge, self.name = edge, name
+        self.edge, self.name, self.wall_m = edge, name, wall_m
         self.area_m2 = 0.25 * math.pi * d_m * d_m if d_m else 0.0
         self.eps_d = eps_m / d_m if d_m else 0.0
         self.l_over_d = length_m / d_m if d_m else 0.0
@@ -55,7 +55,7 @@ class Segment:
         elif kind == "fitting":
             self.k1, self.k_inf = fitting_body_coefficients(shape, d_m)
         elif kind == "entrance":
-            self.k1, self.k_inf = entrance_coefficients(edge, d_m)
+            self.k1, self.k_inf = entrance_coefficients(edge, d_m, wall_m)
 
 
 def part_bore_mm(part) -> float | None:
@@ -87,7 +87,8 @@ def _segment(i: int, p) -> Segment:
         return Segment(i, k, None, 0.0, 0.0, (), 0.0, None, p["dp_bar"] * 1e5, p["at_flow_lpm"] / 60000.0, nu0,
                        p["scaling"])
     if k == "entrance":
-        return Segment(i, k, p["bore_mm"] * 1e-3, edge=p["edge"])
+        wall = p.get("wall_mm")
+        return Segment(i, k, p["bore_mm"] * 1e-3, edge=p["edge"], wall_m=None if wall is None else wall * 1e-3)
     if k == "exit":
         return Segment(i, k, p["bore_mm"] * 1e-3)
     raise ValueError(f"unknown part kind {k!r}")  # pragma: no cover - the validator admits no other kind
@@ -114,13 +115,24 @@ def compile_line(parts) -> list[Segment]:
     return [_segment(i, p) for i, p in enumerate(parts)]
 
 
-def _bore_change_pa(prev_d: float, d: float, q_m3_s: float, nu_m2_s: float, rho_kg_m3: float, re: float,
-                    dyn: float) -> float:
-    """Loss of a sharp change of bore from ``prev_d`` to ``d`` (Hooper), [Pa]."""
-    if prev_d > d:  # contraction, K on the downstream (this part's) velocity head
-        return contraction_k(prev_d, d, re) * dyn
-    vu = q_m3_s / (0.25 * math.pi * prev_d * prev_d)  # expansion, K on the upstream velocity head
-    return expansion_k(prev_d, d, vu * prev_d / nu_m2_s) * 0.5 * rho_kg_m3 * vu * vu
+def _bends_k(s: Segment, re: float, fd: float) -> float:
+    """Minor loss of a part's bends: White's curved-pipe excess in laminar flow, Rennels above."""
+    if re < RE_LAMINAR:
+        return sum(laminar_bend_k(re, s.d_m, angle, rc) for angle, rc in s.bends)
+    return max(s.bend_a + s.bend_b * fd, 0.0)
+
+
+def _bore_change_pa(prev_d: float, d: float, q_m3_s: float, nu_m2_s: float, rho_kg_m3: float, dyn: float) -> float:
+    """Loss of a sharp change of bore from ``prev_d`` to ``d`` (Hooper), [Pa].
+
+    Both of Hooper's methods take the Reynolds number of the upstream bore; the contraction's K is
+    on the downstream (this part's) velocity head ``dyn``, the expansion's on the upstream one.
+    """
+    vu = q_m3_s / (0.25 * math.pi * prev_d * prev_d)
+    re_up = vu * prev_d / nu_m2_s
+    if prev_d > d:
+        return contraction_k(prev_d, d, re_up) * dyn
+    return expansion_k(prev_d, d, re_up) * 0.5 * rho_kg_m3 * vu * vu
 
 
 def line_flow(segs: list[Segment], q_m3_s: float, nu_m2_s: float, rho_kg_m3: float,
@@ -180,12 +192,12 @@ def line_flow(segs: list[Segment], q_m3_s: float, nu_m2_s: float, rho_kg_m3: flo
                     fric = fd * s.l_over_d * dyn
                 k_minor = s.k1 / re + s.k_inf
                 if s.bends:
-                    k_minor += max(s.bend_a + s.bend_b * fd, 0.0)
+                    k_minor += _bends_k(s, re, fd)
                 elif kind == "exit":
                     k_minor += exit_k(re)
                 minor = k_minor * dyn
                 if prev_d is not None and abs(prev_d - d) > 0.02 * d:
-                    trans = _bore_change_pa(prev_d, d, q_m3_s, nu_m2_s, rho_kg_m3, re, dyn)
+                    trans = _bore_change_pa(prev_d, d, q_m3_s, nu_m2_s, rho_kg_m3, dyn)
             prev_d = d if s.kind != "exit" else None
         if s.rise_m:
             elev = rho_kg_m3 * G * s.rise_m

@@ -3,13 +3,16 @@
 The model (stated assumptions; the sentences are repeated in ``thermal.method`` of the result):
 
 * the steering does no net work, so all the hydraulic power the pump puts
-  into the fluid becomes heat in the fluid: at neutral the circuit flow times
-  the pump outlet pressure, plus the frictional loss of the feed line, plus
-  the relief flow times the relief setting when the relief is open; at full
-  lock the whole delivered flow times the relief setting;
-* with ``pump.overall_efficiency`` given, the pump's own losses
-  ``Q p_out (1/eta - 1)`` are added in full to the fluid (conservative: part
-  of them leaves through the pump body and the belt);
+  into the fluid becomes heat in the fluid: the pump raises its whole geometric
+  flow (displacement x pump speed) from its inlet pressure to the pressure it
+  works against (outlet plus the flow-control metering drop; the relief setting
+  at full lock): the internal leakage, the flow the flow control recirculates or
+  the relief passes, and the flow through the circuit and the feed line
+  (``calc.physics.pump.pump_heat_w``); a starved pump has no excess to recirculate;
+* with ``pump.overall_efficiency`` given, the mechanical (friction) losses on
+  top of that hydraulic input, with mechanical = overall / volumetric efficiency,
+  are added in full to the fluid (conservative: part of them leaves through the
+  pump body and the belt); the leakage is not counted again;
 * every line part that is a hose or a tube rejects heat from its outer
   surface to the under-hood air: inside film, wall conduction and outside film
   in series; fittings and devices are not counted (small surfaces);
@@ -30,8 +33,9 @@ import math
 from ht import effectiveness_from_NTU
 
 from ..data.tables import tube_materials, typical_hose_walls
-from ..physics.convection import G, h_inside_pipe
-from ..physics.heat import cylinder_ua_per_m, hydraulic_heat_w
+from ..physics.convection import h_inside_pipe
+from ..physics.heat import cylinder_ua_per_m
+from ..physics.pump import mechanical_loss_w, pump_heat_w
 from .circuit import BAR, LPM
 from .line import part_bore_mm
 
@@ -79,19 +83,14 @@ class ThermalModel:
         self.th = th
         self.t_air_c = th["air_temp_c"]
         self.cooler = dict(th["cooler"] if cooler is None else cooler)
-        self.relief_pa = circuit.pump["relief_bar"] * BAR
         self.eta_o = circuit.pump.get("overall_efficiency")
+        self.eta_v = circuit.pump["volumetric_efficiency"]
         self.surfaces = []
         self.volume_m3 = th["other_volume_l"] * 1e-3
-        self.feed_rise = {}
         self.notes = []
         for ln in circuit.lines:
-            rise = 0.0
             for k, p in enumerate(ln.parts):
-                rise += p.get("rise_m", 0.0) or 0.0
                 self._add_part(ln, k, p)
-            if ln.role == "feed":
-                self.feed_rise[ln.index] = rise
 
     def _add_part(self, ln, k: int, p) -> None:
         kind = p["kind"]
@@ -114,21 +113,20 @@ class ThermalModel:
             self.volume_m3 += 0.25 * math.pi * (p["bore_mm"] * 1e-3) ** 2 * p.get("passage_length_mm", 25.0) * 1e-3
 
     # -- heat generated ------------------------------------------------------------
+    def heat_detail(self, op: dict) -> dict:
+        """Heat generated at a solved operating point by where it arises [W]: ``leakage_w``, ``bypass_w``
+        (flow control and relief), ``circuit_w`` (metering, lines, gear, feed) and ``mechanical_w``."""
+        leak, bypass, circuit = pump_heat_w(op["pump_geometric_lpm"] * LPM, op["pump_flow_uncapped_lpm"] * LPM,
+                                            op["circuit_flow_lpm"] * LPM, op["pump_internal_bar"] * BAR,
+                                            op["pump_inlet_bar"] * BAR, op["pump_starved"])
+        hydraulic = leak + bypass + circuit
+        mech = mechanical_loss_w(hydraulic, self.eta_o / self.eta_v) if self.eta_o else 0.0
+        return {"leakage_w": leak, "bypass_w": bypass, "circuit_w": circuit, "mechanical_w": mech}
+
     def heat(self, op: dict) -> tuple[float, float]:
-        """(hydraulic heat, pump losses) [W] of a solved operating point."""
-        q_c = op["circuit_flow_lpm"] * LPM
-        q_r = op["relief_flow_lpm"] * LPM
-        p_out = op["pump_outlet_bar"] * BAR
-        feed = 0.0
-        if q_c > 0.0:
-            for j, rise in self.feed_rise.items():
-                ln = op["lines"][j]
-                feed += max(ln["pressure_drop_bar"] * BAR - op["density_kg_m3"] * G * rise, 0.0)
-        hyd_w = hydraulic_heat_w(q_c, p_out, q_r, self.relief_pa if q_r > 0.0 else 0.0, feed)
-        loss = 0.0
-        if self.eta_o:
-            loss = op["pump_flow_lpm"] * LPM * p_out * (1.0 / self.eta_o - 1.0)
-        return hyd_w, loss
+        """(hydraulic heat, mechanical losses) [W] of a solved operating point."""
+        d = self.heat_detail(op)
+        return d["leakage_w"] + d["bypass_w"] + d["circuit_w"], d["mechanical_w"]
 
     # -- heat rejected ------------------------------------------------------------
     def rejection(self, t_c: float, q_m3_s: float, air_speed_m_s: float, with_cooler: bool = True,
@@ -201,7 +199,8 @@ class ThermalModel:
         """Heat generated and rejected at ``cond`` with the fluid at ``t_c``."""
         if op is None:
             op = self.circuit.operating_point(cond, t_c=t_c, detail=False)
-        hyd_w, loss = self.heat(op)
+        d = self.heat_detail(op)
+        hyd_w = d["leakage_w"] + d["bypass_w"] + d["circuit_w"]
         rej = self.rejection(t_c, op["circuit_flow_lpm"] * LPM, cond["air_speed_m_s"], with_cooler, detail)
-        return {"heat_w": hyd_w + loss, "heat_hydraulic_w": hyd_w, "heat_pump_loss_w": loss,
-                "circuit_flow_m3_s": op["circuit_flow_lpm"] * LPM, "rejection": rej}
+        return {"heat_w": hyd_w + d["mechanical_w"], "heat_hydraulic_w": hyd_w, "heat_pump_loss_w": d["mechanical_w"],
+                "heat_detail": d, "circuit_flow_m3_s": op["circuit_flow_lpm"] * LPM, "rejection": rej}

@@ -38,7 +38,12 @@ def test_every_data_row_carries_a_source():
         if not cls["sizes"]:
             assert "maker's datasheet" in cls["note"]  # power-steering classes: no invented numbers
     assert all(m["source"] and m["bend_source"] for m in tube_materials().values())
-    assert all(f["source"] and all(r["source"] for r in f["sizes"]) for f in fitting_families().values())
+    for f in fitting_families().values():
+        assert f["source"], f["family"]
+        for r in f["sizes"]:
+            rated = r.get("working_bar") is not None or f.get("working_bar") is not None
+            assert not rated or (r.get("source") or f.get("rating_source")), (f["family"], r["size"])
+            assert r.get("bore_mm") is None or r.get("bore_source"), (f["family"], r["size"])
 
 
 def test_power_steering_classes_are_listed_without_numbers():

@@ -22,17 +22,21 @@ def test_sentences_in_us_units():
 
 
 def test_which_strings_are_sentences_comes_from_the_result_declaration():
-    # Source: exact conversion 125 C = 1.8 x 125 + 32 = 257 F; the declaration (calc.model.result)
-    # names the full-lock curve note as a sentence, and the user's names as text.
+    # Source: exact conversion 1 in = 25.4 mm (NIST SP 811): the tube 9.53 x 0.89 mm is 0.375 x 0.035 in; the
+    # declaration (calc.model.result) names a part's description and notes as sentences, the user's names as
+    # text (a hand-kept key list missed them).
     import calc.edges.units as units
     job = demo_job()
     job["name"] = "test at 20 C"
     res = evaluate(job)
-    assert res["thermal"]["full_lock"]["curve_note"].endswith("past 125 C")
+    tube = [p for p in res["lines"][0]["rating"]["parts"] if p["kind"] == "tube"][0]
+    assert tube["description"].startswith("tube 9.53 x 0.89 mm") and " bar" in tube["notes"][0]
     us = localize_result(res, "us")
-    assert us["thermal"]["full_lock"]["curve_note"].endswith("past 257 F")
+    tube_us = [p for p in us["lines"][0]["rating"]["parts"] if p["kind"] == "tube"][0]
+    assert tube_us["description"].startswith("tube 0.375 x 0.035 in")
+    assert " psi" in tube_us["notes"][0] and " bar" not in tube_us["notes"][0]
     assert us["job_name"] == "test at 20 C"
     assert [c["name"] for c in us["conditions"]] == [c["name"] for c in res["conditions"]]
     assert not hasattr(units, "_TEXT_KEYS")
     assert localize_result(res, "metric") is res
-    assert res["thermal"]["full_lock"]["curve_note"].endswith("past 125 C")  # the input is not edited
+    assert tube["description"].startswith("tube 9.53 x 0.89 mm")  # the input is not edited

@@ -146,3 +146,20 @@ def test_model_declares_every_key_once():
                 if hasattr(item, "fields"):
                     walk(item)
     walk(JOB)
+
+
+def test_implausible_fluid_slope_warns_and_real_fluids_do_not():
+    # Source: ASTM D341 slopes B from recalled datasheet pairs (from memory): VG 32 with VI 100 (32 / 5.4 cSt),
+    # a transmission-type fluid (34 / 7.2), a synthetic steering fluid (18 / 6), a silicone fluid (40 / 16) and a
+    # low-VI naphthenic oil (32 / 4.2) all lie inside the stated bounds; 10 / 9.999 cSt (a typing slip) does not.
+    def warned(v40, v100):
+        job = simple_job()
+        job["fluid"] = {"preset": "custom", "visc_40c_cst": v40, "visc_100c_cst": v100, "density_15c_kg_m3": 860,
+                        "specific_heat_j_kgk": 1900}
+        _, problems, warnings = validate_job(job)
+        assert problems == []
+        return [w for w in warnings if w.path == "fluid.visc_100c_cst"]
+    for v40, v100 in ((32, 5.4), (34, 7.2), (18, 6.0), (40, 16.0), (32, 4.2)):
+        assert warned(v40, v100) == [], (v40, v100)
+    w = warned(10, 9.999)
+    assert w and "slope" in w[0].message and "outside what real hydraulic fluids show" in w[0].message

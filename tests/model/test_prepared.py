@@ -44,7 +44,7 @@ def test_prepare_problems_name_the_field():
     assert "maker's datasheet" in _errors(job)["lines[0].parts[1].bore_mm"]
     job = _demo()
     job["lines"][0]["parts"][0].update(family="jic-37", dash=7)
-    assert "sizes: -4, -5, -6" in _errors(job)["lines[0].parts[0].dash"]
+    assert "sizes: -2, -3, -4, -5, -6, -8" in _errors(job)["lines[0].parts[0].dash"]
 
 
 def test_prepared_job_cannot_be_edited():

@@ -24,6 +24,7 @@ def _variants():
     jobs = [json.loads(p.read_text(encoding="utf-8")) for p in demo_paths()]
     j = simple_job(relief_bar=20.0)  # cold: the relief opens at neutral; no duty cycle
     j["conditions"] = [{"name": "frozen", "engine_rpm": 2000, "fluid_temp_c": -35.0}]
+    j["lines"][0]["parts"][0]["bends"] = [{"angle_deg": 90, "radius_mm": 5}]  # under one bore: a warning
     jobs.append(j)
     j = simple_job()
     j["lines"][0]["parts"].append({"kind": "tube", "od_mm": 9.53, "wall_mm": 0.89, "length_m": 0.5,
@@ -127,4 +128,4 @@ def test_describe_result_prints_the_declaration_as_json():
                for row in rows)
     md = subprocess.run([sys.executable, "-m", "calc", "describe", "--result", "--markdown"], capture_output=True,
                         text=True, timeout=60)
-    assert md.returncode == 0 and "`thermal.full_lock.curve_note`" in md.stdout
+    assert md.returncode == 0 and "`thermal.full_lock.pump_rate_k_s`" in md.stdout

@@ -6,7 +6,8 @@ import pytest
 
 from calc.physics.convection import (air_properties, h_forced_cylinder, h_inside_pipe, h_natural_cylinder,
                                      h_outside_cylinder)
-from calc.physics.heat import annular_fin_efficiency, cylinder_ua_per_m, hydraulic_heat_w, temp_rise_c
+from calc.physics.heat import annular_fin_efficiency, cylinder_ua_per_m, temp_rise_c
+from calc.physics.pump import mechanical_loss_w, pump_heat_w
 from calc.physics.lumped import solve_steady, warmup
 
 LPM = 1 / 60000
@@ -19,9 +20,27 @@ def test_temp_rise_rule_of_thumb():
     assert temp_rise_c(-1.0, 870.0, 1900.0) == 0.0
 
 
-def test_hydraulic_heat_of_field_note_example():
-    # Source: field notes (common practice): about 1 kW for 80 bar and 8 L/min.
-    assert hydraulic_heat_w(0.0, 0.0, 8 * LPM, 80 * BAR) == pytest.approx(1000, rel=0.1)
+def test_pump_heat_of_field_note_example():
+    # Source: field notes (common practice): about 1 kW for 80 bar and 8 L/min crossing the relief; the energy
+    # balance p Q = 80e5 x 8 / 60000 = 1067 W (exact).
+    parts = pump_heat_w(8 * LPM, 8 * LPM, 0.0, 80 * BAR, 0.0)
+    assert sum(parts) == pytest.approx(1000, rel=0.1)
+    assert sum(parts) == pytest.approx(80 * BAR * 8 * LPM, rel=1e-12)
+
+
+def test_pump_heat_splits_the_geometric_flow_without_counting_twice():
+    # Source: first-law energy balance, exact: 20 L/min geometric, 18 L/min after leakage, 7.5 L/min to the
+    # circuit, 32 bar internal and -0.1 bar at the inlet: leakage 2, bypass 10.5 and circuit 7.5 L/min, each
+    # times 32.1 bar, adding up to the geometric flow times the pressure rise.
+    leak, bypass, circuit = pump_heat_w(20 * LPM, 18 * LPM, 7.5 * LPM, 32 * BAR, -0.1 * BAR)
+    assert leak == pytest.approx(2 * LPM * 32.1 * BAR, rel=1e-12)
+    assert bypass == pytest.approx(10.5 * LPM * 32.1 * BAR, rel=1e-12)
+    assert circuit == pytest.approx(7.5 * LPM * 32.1 * BAR, rel=1e-12)
+    assert leak + bypass + circuit == pytest.approx(20 * LPM * 32.1 * BAR, rel=1e-12)
+    # a starved pump has nothing to bypass
+    assert pump_heat_w(20 * LPM, 18 * LPM, 5 * LPM, 32 * BAR, -0.2 * BAR, starved=True)[1] == 0.0
+    # Source: definition of mechanical efficiency (shaft power = hydraulic input / eta_m): 25 % on top at 0.8.
+    assert mechanical_loss_w(1000.0, 0.8) == pytest.approx(250.0, rel=1e-12)
 
 
 # -- 3. convection -------------------------------------------------------------------

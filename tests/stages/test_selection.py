@@ -51,3 +51,18 @@ def test_candidate_drop_equals_the_circuit_engine_with_that_hose():
     # Source: v = Q / (pi d^2 / 4) at the largest circuit flow (continuity)
     q = max(c["circuit_flow_lpm"] for c in res["conditions"]) / 60000
     assert cand["velocity_max_m_s"] == pytest.approx(q / (math.pi / 4 * (cand["bore_mm"] / 1000) ** 2), rel=1e-12)
+
+
+def test_the_smallest_passing_size_of_a_class_is_never_called_larger_than_needed():
+    # Source: stated rule: a hose is larger than needed only when a smaller size of its class passes too.
+    for name in ("compact-hatch", "swap-remote-reservoir", "light-truck-high-flow"):
+        job = json.loads((resources.files("calc") / "data" / "demos" / f"{name}.json").read_text())
+        for ln in evaluate(job)["lines"]:
+            passing = [c for c in ln["candidates"] if c["verdict"] != "fail"]
+            for cls in {c["class"] for c in passing}:
+                smallest = min((c for c in passing if c["class"] == cls), key=lambda c: c["bore_mm"])
+                assert not any("larger than needed" in r for r in smallest["reasons"]), (name, ln["name"], cls)
+            for c in passing:
+                if any("larger than needed" in r for r in c["reasons"]):
+                    assert c["verdict"] == "caution"
+                    assert any(o["class"] == c["class"] and o["bore_mm"] < c["bore_mm"] for o in passing)

@@ -66,47 +66,71 @@ def test_temp_rise_matches_rule_of_thumb_and_energy_balance():
 # -- 2. heat generated -----------------------------------------------------------------
 
 
-def test_heat_at_relief_vs_pq_and_1714_formula():
-    th, ops = run(lock_job(flow_lpm=7.5, relief_bar=85.0))
+def test_heat_at_full_lock_is_the_geometric_flow_over_the_relief():
+    # Source: energy balance P = p Q on the pump's whole geometric flow (field notes: 10 cm3/rev at 2000 rpm is
+    # 20 L/min; at 85 bar that is 2,833 W; the capped 7.5 L/min would give only 1,062 W).
+    job = lock_job(flow_lpm=7.5, relief_bar=85.0)
+    job["conditions"][1]["engine_rpm"] = 2000
+    th, ops = run(job)
     lock = ops[1]
-    q, p = 7.5 * LPM, 85.0 * BAR
-    # Source: hydraulic power P = p Q (exact; the whole delivered flow crosses the relief).
+    q, p = 20 * LPM, 85.0 * BAR
+    assert lock["pump_geometric_lpm"] == pytest.approx(20.0, rel=1e-12)
+    assert lock["heat_w"] == pytest.approx(2833.33, abs=0.01)
     assert lock["heat_w"] == pytest.approx(p * q, rel=1e-12)
     # Source: hp = psi x gpm / 1714 (common practice; 1714 rounds 1714.25).
     hp = (p / PSI) * (q / GPM) / 1714.0
     assert lock["heat_w"] == pytest.approx(hp * HP, rel=1e-3)
     # Source: heat [BTU/h] ~ 1.5 x psi x gpm (common practice, approximate: 2544.4/1714 = 1.484).
     assert lock["heat_w"] * 3.412141633 == pytest.approx(1.5 * (p / PSI) * (q / GPM), rel=0.02)
+    d = lock["heat_detail"]
+    # Source: energy balance: leakage (1 - 0.9) x 20 L/min and the rest over the relief, both at 85 bar (exact)
+    assert d["leakage_w"] == pytest.approx(2 * LPM * p, rel=1e-12)
+    assert d["bypass_w"] == pytest.approx(18 * LPM * p, rel=1e-12) and d["circuit_w"] == 0.0
 
 
-def test_heat_at_neutral_is_flow_times_outlet_pressure_and_pump_losses():
+def test_heat_at_neutral_covers_the_whole_geometric_flow_and_the_mechanical_losses_once():
     job = lock_job()
-    job["pump"]["overall_efficiency"] = 0.8
+    job["pump"].update(overall_efficiency=0.72, metering_drop_bar=2.0)
     th, ops = run(job)
     cruise, lock = ops
-    q, p = cruise["circuit_flow_lpm"] * LPM, cruise["pump_outlet_bar"] * BAR
-    # Source: P = p Q at the pump outlet, no feed line listed (exact for the model).
-    assert cruise["heat_hydraulic_w"] == pytest.approx(p * q, rel=1e-12)
-    # Source: shaft power = hydraulic power / overall efficiency (definition of overall efficiency).
-    assert cruise["heat_w"] == pytest.approx(p * q / 0.8, rel=1e-12)
-    assert lock["heat_w"] == pytest.approx(85 * BAR * 7.5 * LPM / 0.8, rel=1e-12)
+    qg = cruise["pump_geometric_lpm"] * LPM
+    p_int = (cruise["pump_outlet_bar"] + cruise["metering_drop_bar"]) * BAR
+    # Source: energy balance: the pump raises its geometric flow to outlet pressure + metering drop (the 2 bar
+    # given, while the flow control limits); no feed line listed, so from 0 bar (exact for the model).
+    assert cruise["metering_drop_bar"] == pytest.approx(2.0)
+    assert cruise["heat_hydraulic_w"] == pytest.approx(qg * p_int, rel=1e-12)
+    # Source: the heat is at least geometric flow x pump outlet pressure (the audit's lower bound).
+    assert cruise["heat_hydraulic_w"] >= qg * cruise["pump_outlet_bar"] * BAR
+    # Source: definition: overall = volumetric x mechanical; shaft power = hydraulic input / mechanical efficiency,
+    # so with 0.72 overall and 0.9 volumetric the mechanical efficiency is 0.8: losses 25 % of the input.
+    assert cruise["heat_pump_loss_w"] == pytest.approx(cruise["heat_hydraulic_w"] * 0.25, rel=1e-12)
+    assert lock["heat_w"] == pytest.approx(85 * BAR * 10 * LPM / 0.8, rel=1e-12)  # 10 L/min geometric at 1000 rpm
 
 
-def test_heat_with_relief_open_at_neutral_is_pump_flow_times_relief():
+def test_overall_efficiency_above_volumetric_is_refused():
+    job = lock_job()
+    job["pump"]["overall_efficiency"] = 0.95
+    r = evaluate(job)
+    assert not r["ok"] and r["errors"][0]["path"] == "pump.overall_efficiency"
+
+
+def test_heat_with_relief_open_at_neutral_is_the_geometric_flow_over_the_relief():
     job = simple_job(relief_bar=20.0)
     job["conditions"] = [{"name": "frozen", "engine_rpm": 2000, "fluid_temp_c": -35.0}]
     th, ops = run(job)
     c = ops[0]
     assert c["relief_open"] and c["relief_flow_lpm"] > 0
-    # Source: energy balance, both the circuit and the relief stand at the relief pressure: P = p_relief Q_pump.
-    assert c["heat_w"] == pytest.approx(20 * BAR * c["pump_flow_lpm"] * LPM, rel=1e-6)
+    # Source: energy balance: the pump works against the relief setting plus the metering drop of the flow
+    # that leaves it: P = Q_geometric (p_relief + dp_metering).
+    p_int = (20 + c["metering_drop_bar"]) * BAR
+    assert c["heat_w"] == pytest.approx(p_int * c["pump_geometric_lpm"] * LPM, rel=1e-9)
 
 
 # -- 4. steady temperature --------------------------------------------------------------
 
 
 def test_steady_state_balances_heat_and_rejection():
-    th, _ = run(demo_job())
+    th, _ = run(demo_job("swap-remote-reservoir"))
     assert th["steady"]["status"] == "converged"
     t = th["steady_temp_c"]
     assert th["air_temp_c"] < t < th["limit_c"]
@@ -167,9 +191,10 @@ def test_property_duty_off_100_is_always_an_error(shares):
 # -- 5. full-lock hold ------------------------------------------------------------------
 
 
-def test_engine_full_lock_matches_analytic_solution():
+def test_engine_full_lock_matches_the_analytic_solutions_of_both_lumps():
     area, h, other_l = 0.05, 12.0, 0.6
-    job = lock_job(reservoir_area_m2=area, reservoir_h_w_m2k=h, other_volume_l=other_l, full_lock_hold_s=300.0)
+    job = lock_job(reservoir_area_m2=area, reservoir_h_w_m2k=h, other_volume_l=other_l, full_lock_hold_s=300.0,
+                   pump_volume_l=0.2, pump_heat_capacity_j_k=400.0)
     th, ops = run(job)
     fl = th["full_lock"]
     t0 = th["steady_temp_c"]
@@ -178,17 +203,26 @@ def test_engine_full_lock_matches_analytic_solution():
     vol = 2 * math.pi / 4 * 0.0095 ** 2 * 1.0 + other_l * 1e-3
     assert fl["volume_l"] == pytest.approx(vol * 1e3, rel=1e-12)
     norm, _, _ = validate_job(copy.deepcopy(job))
-    rho = state_of(norm["fluid"], t0).rho_kg_m3
-    mcp = rho * vol * norm["fluid"]["specific_heat_j_kgk"]
-    p, ua, ta = 85 * BAR * 7.5 * LPM, area * h, 50.0
-    for pt in th["full_lock_curve"]:
-        # Source: exact first-order solution; the lines carry no flow at full lock, so only UA = area x h.
-        exact = ta + p / ua + (t0 - ta - p / ua) * math.exp(-pt["t_s"] * ua / mcp)
-        assert pt["temp_c"] == pytest.approx(exact, abs=1e-6)
-    # Source: the same exact solution solved for the fluid limit.
+    st = state_of(norm["fluid"], t0)
+    mcp = st.rho_kg_m3 * vol * norm["fluid"]["specific_heat_j_kgk"]
+    c_pump = st.rho_kg_m3 * st.cp_j_kgk * 0.2e-3 + 400.0
+    p, ua, ta = 85 * BAR * 10 * LPM, area * h, 50.0  # 10 cm3/rev at 1000 rpm: 10 L/min geometric
+    assert fl["heat_w"] == pytest.approx(p, rel=1e-12)
+    assert fl["pump_heat_capacity_j_k"] == pytest.approx(c_pump, rel=1e-12)
     lim = th["limit_c"]
+    for pt in th["full_lock_curve"]:
+        # Source: exact solutions: the pump's lump keeps all the heat, T = T0 + P t / C; the whole fluid is
+        # first order with only the reservoir rejecting (UA = area x h) since the lines carry no flow.
+        assert pt["pump_temp_c"] == pytest.approx(t0 + p * pt["t_s"] / c_pump, abs=1e-9)
+        exact = ta + p / ua + (t0 - ta - p / ua) * math.exp(-pt["t_s"] * ua / mcp)
+        assert pt["bulk_temp_c"] == pytest.approx(exact, abs=1e-6)
+    # Source: the same exact solutions solved for the limit; the pump's is the hold time that matters.
+    assert th["full_lock_seconds_to_limit"] == pytest.approx((lim - t0) * c_pump / p, rel=1e-12)
     t_exact = -mcp / ua * math.log((lim - ta - p / ua) / (t0 - ta - p / ua))
-    assert th["full_lock_seconds_to_limit"] == pytest.approx(t_exact, abs=0.05)
+    assert fl["bulk_seconds_to_limit"] == pytest.approx(t_exact, abs=0.05)
+    assert th["full_lock_seconds_to_limit"] < fl["bulk_seconds_to_limit"]
+    hold = [c for c in th["checks"] if c["check"] == "full-lock hold"][0]
+    assert hold["verdict"] == "caution" and "more than a few seconds (common practice)" in hold["message"]
 
 
 @settings(max_examples=20, deadline=None)
@@ -213,8 +247,8 @@ def test_property_more_flow_at_full_lock_never_delays_limit(q1, dq):
 
 def test_needed_cooler_rating_brings_steady_to_target():
     job = lock_job(air_temp_c=80.0, limit_margin_c=5.0)
-    job["conditions"][1]["duty_percent"] = 20.0
-    job["conditions"][0]["duty_percent"] = 80.0
+    job["conditions"][1]["duty_percent"] = 5.0
+    job["conditions"][0]["duty_percent"] = 95.0
     th, _ = run(job)
     need = th["cooler_needed_w_per_k"]
     assert need and need > 0 and th["steady_temp_c"] > th["target_c"]
@@ -230,8 +264,11 @@ def test_needed_cooler_rating_brings_steady_to_target():
     assert th3["steady_temp_c"] == pytest.approx(th["target_c"], abs=0.1)
 
 
-def test_no_cooler_needed_for_demo():
-    th, _ = run(demo_job())
+def test_no_cooler_needed_in_cool_air_with_little_full_lock():
+    job = lock_job(air_temp_c=20.0)
+    job["conditions"][0]["duty_percent"], job["conditions"][1]["duty_percent"] = 99.5, 0.5
+    th, _ = run(job)
+    assert th["steady_temp_c"] < th["target_c"]
     assert th["cooler_needed_w_per_k"] == 0.0 and "no cooler needed" in th["cooler_message"]
 
 
@@ -311,8 +348,12 @@ def test_zero_fluid_volume_is_reported_not_raised():
     job = lock_job(other_volume_l=0.0)
     job["lines"] = [{"name": "p", "role": "pressure", "parts": [{"kind": "device", "dp_bar": 1.0, "at_flow_lpm": 7.5}]}]
     th, _ = run(job)
-    assert th["full_lock_seconds_to_limit"] is None and th["full_lock_curve"] == []
+    assert th["full_lock"]["bulk_seconds_to_limit"] is None and th["full_lock_curve"] == []
     assert "no fluid volume" in th["full_lock"]["message"]
+    # the fluid in the pump still takes the heat: T0 + P t / C (exact)
+    fl = th["full_lock"]
+    assert th["full_lock_seconds_to_limit"] == pytest.approx(
+        (th["limit_c"] - fl["start_temp_c"]) * fl["pump_heat_capacity_j_k"] / fl["heat_w"], rel=1e-12)
 
 
 def test_cooler_device_without_thermal_cooler_is_flagged():

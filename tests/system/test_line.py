@@ -55,10 +55,29 @@ def test_contraction_and_expansion_use_hooper_method():
     _, parts = line_flow(segs, q, nu, rho)
     v6 = q / (math.pi / 4 * 0.006 ** 2)
     re6 = v6 * 0.006 / nu
-    k_c = fluids.contraction_sharp(Di1=0.0095, Di2=0.006, Re=re6, method="Hooper")
+    re95 = q / (math.pi / 4 * 0.0095 ** 2) * 0.0095 / nu  # the contraction takes the upstream bore's Re
+    k_c = fluids.contraction_sharp(Di1=0.0095, Di2=0.006, Re=re95, method="Hooper")
     assert parts[1]["transition_pa"] == pytest.approx(k_c * 0.5 * rho * v6 ** 2, rel=1e-12)
     k_e = fluids.diffuser_sharp(Di1=0.006, Di2=0.0095, Re=re6, method="Hooper")
     assert parts[2]["transition_pa"] == pytest.approx(k_e * 0.5 * rho * v6 ** 2, rel=1e-12)
+
+
+def test_contraction_12_to_6_mm_uses_the_upstream_reynolds_number():
+    # Source: fluids.fittings.contraction_sharp docstring (Hooper: Re and friction factor of the original,
+    # larger bore), called directly. 8 L/min of ISO VG 32 at 80 C (ASTM D341 from 32 / 5.4 cSt): Re1 about
+    # 1658 in the 12 mm bore; the drop on the 6 mm velocity head is about 0.113 bar.
+    from calc.model.fluid import resolve_fluid, state_of
+    st = state_of(resolve_fluid({"preset": "iso-vg32"}), 80.0)
+    q = 8 * LPM
+    v1, v2 = q / (math.pi / 4 * 0.012 ** 2), q / (math.pi / 4 * 0.006 ** 2)
+    re1 = v1 * 0.012 / st.nu_m2_s
+    assert re1 == pytest.approx(1658, rel=0.01)
+    segs = compile_line([hose(12.0, 0.5), {"kind": "fitting", "bore_mm": 6.0, "shape": "straight",
+                                           "passage_length_mm": 0.0}])
+    _, parts = line_flow(segs, q, st.nu_m2_s, st.rho_kg_m3)
+    k2 = fluids.contraction_sharp(Di1=0.012, Di2=0.006, Re=re1, method="Hooper")
+    assert parts[1]["transition_pa"] == pytest.approx(k2 * 0.5 * st.rho_kg_m3 * v2 ** 2, rel=1e-9)
+    assert parts[1]["transition_pa"] / 1e5 == pytest.approx(0.113, abs=0.002)
 
 
 def test_elevation_term():
@@ -123,8 +142,9 @@ def test_drop_rises_with_viscosity(d, L, q, nu, factor):
 
 @pytest.mark.parametrize("re", [30.0, 800.0, 3000.0, 2e4, 2e5])
 def test_bend_and_fitting_coefficients_match_fluids_calls(re):
-    # Source: fluids.fittings.bend_rounded (Rennels) and fluids.fittings.Darby3K, reference library:
-    # the per-part coefficients compiled once must give the same K as calling fluids each time.
+    # Source: fluids.fittings.bend_rounded (Rennels, Re of 2000 and above), fluids.friction.
+    # helical_laminar_fd_White (laminar: the curved arc's excess over 64/Re) and fluids.fittings.Darby3K,
+    # reference library: the per-part coefficients compiled once must give the same K as calling fluids.
     d = 0.0095
     nu, rho = 10e-6, 850.0
     q = re * nu * math.pi * d / 4
@@ -133,10 +153,39 @@ def test_bend_and_fitting_coefficients_match_fluids_calls(re):
                                                {"kind": "fitting", "bore_mm": 9.5, "shape": "elbow-90",
                                                 "passage_length_mm": 0.0}]), q, nu, rho)
     fd = friction_factor(re, 0.005e-3 / d)
-    k_ref = sum(fluids.bend_rounded(Di=d, angle=b["angle_deg"], fd=fd, rc=b["radius_mm"] * 1e-3, Re=re,
-                                    method="Rennels") - fd * math.radians(b["angle_deg"]) * b["radius_mm"] * 1e-3 / d
-                for b in bends)
+    if re < 2000:
+        k_ref = sum((fluids.helical_laminar_fd_White(Re=re, Di=d, Dc=2 * b["radius_mm"] * 1e-3) - 64 / re)
+                    * math.radians(b["angle_deg"]) * b["radius_mm"] * 1e-3 / d for b in bends)
+    else:
+        k_ref = sum(fluids.bend_rounded(Di=d, angle=b["angle_deg"], fd=fd, rc=b["radius_mm"] * 1e-3, Re=re,
+                                        method="Rennels") - fd * math.radians(b["angle_deg"]) * b["radius_mm"] * 1e-3 / d
+                    for b in bends)
     assert parts[0]["k_minor"] == pytest.approx(k_ref, rel=1e-12)
     k_darby = fluids.Darby3K(Re=parts[1]["reynolds"], name="Elbow, 90°, threaded, standard, (r/D = 1)",
                              NPS=d / 0.0254)
     assert parts[1]["k_minor"] == pytest.approx(k_darby, rel=1e-12)
+
+
+def test_laminar_bend_at_low_dean_number_adds_nothing():
+    # Source: White (1929) via fluids.friction.helical_laminar_fd_White: below Dean 11.6 a curved pipe has the
+    # straight pipe's friction, so a bend adds no loss beyond its arc's length (exact).
+    d, nu = 0.0095, 900e-6  # cold fluid: Re about 20
+    q = 20 * nu * math.pi * d / 4
+    _, parts = line_flow(compile_line([hose(9.5, 1.0, bends=[{"angle_deg": 90.0, "radius_mm": 40.0}])]), q, nu, 870.0)
+    assert parts[0]["reynolds"] == pytest.approx(20.0)
+    assert parts[0]["k_minor"] == 0.0
+    f = 64 / 20.0
+    assert parts[0]["friction_pa"] == pytest.approx(f * 1.0 / d * 0.5 * 870.0 * parts[0]["velocity_m_s"] ** 2, rel=1e-12)
+
+
+def test_projecting_reservoir_outlet_loses_more_than_a_flush_one():
+    # Source: fluids.fittings.entrance_distance (Rennels) called directly: a thin projecting pipe about 0.92
+    # (t = 0.01 D, the stated default), a 0.5 mm wall on 10 mm 1.02, against 0.57 flush (entrance_sharp).
+    def k_inf(**kw):
+        part = {"kind": "entrance", "bore_mm": 10.0, **kw}
+        return compile_line([part])[0].k_inf
+    assert k_inf(edge="sharp") == pytest.approx(fluids.entrance_sharp(), rel=1e-12)
+    assert k_inf(edge="projecting") == pytest.approx(fluids.entrance_distance(Di=0.01, t=0.0001), rel=1e-12)
+    assert k_inf(edge="projecting", wall_mm=0.5) == pytest.approx(fluids.entrance_distance(Di=0.01, t=0.0005),
+                                                                  rel=1e-12)
+    assert 0.9 <= k_inf(edge="projecting") <= 1.1 and k_inf(edge="projecting") > k_inf(edge="sharp")

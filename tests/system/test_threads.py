@@ -275,3 +275,44 @@ def test_plan_for_port_reads_a_job_port_record():
     p = plan_for_port(port)
     assert p["ok"] and len(p["adapters"]) == 1
     assert plan_for_port(None) is None
+
+
+PORTS = [{"thread": "M16x1.5", "seal": "metric-oring"}, {"thread": "3/4-16 UNF", "seal": "oring-boss"},
+         {"thread": "9/16-18 UNF", "seal": "oring-boss"}, {"thread": "1/4 NPT", "seal": "pipe-taper"},
+         {"thread": "M14x1.5", "seal": "crush-washer"}, {"thread": "1/4 BSPP", "seal": "crush-washer"}]
+
+
+def test_every_adapter_is_rated_as_its_family_table_says():
+    # Source: calc/data/fittings.json, the one home of each family's rating per size (from memory):
+    # an adapter takes the lower of its two ends' figures, and a fitting part of that family and size
+    # is rated with the same figure.
+    from calc.data.tables import family_rating, fitting_families, size_row
+    from calc.system.rating import part_ratings
+    fams = fitting_families()
+    planned = 0
+    for port in PORTS:
+        for e in ends():
+            size = {"thread": e["thread"]} if e["dash"] is None else {"dash": e["dash"]}
+            if e["family"].startswith("cone-24"):
+                size = {"tube_od_mm": e["tube_od_mm"]}
+            plan = plan_adapters(port, {"family": e["family"], **size})
+            if not plan["ok"] or not plan["adapters"]:
+                continue
+            a = plan["adapters"][0]
+            port_rows = [r for r in ends() if r["thread"] == find_thread(port["thread"])["designation"]
+                         and r["seal"].replace("metric-oring", "oring-boss") == port["seal"].replace("metric-oring", "oring-boss")
+                         and r["family"] != "banjo"]
+            end_rating = family_rating(fams[e["family"]], e)
+            ratings = [family_rating(fams[r["family"]], r) for r in port_rows]
+            if a["working_bar"] is None:
+                continue
+            planned += 1
+            assert a["working_bar"] == min([end_rating] + [r for r in ratings if r is not None]), a["name"]
+            part = adapter_parts(plan)[0]
+            if part.get("family") and part.get("dash") is not None:
+                row = size_row(fams[part["family"]]["sizes"], part["dash"])
+                assert family_rating(fams[part["family"]], row) == a["working_bar"], a["name"]
+            rated = part_ratings([dict(part, max_temp_c=None, cutoff_mm=0.0, end="inline")],
+                                 {"hose_design_factor": 4.0, "tube_design_factor": 4.0}, 80.0, -20.0)[0]
+            assert rated["working_bar"] == a["working_bar"], a["name"]
+    assert planned >= 20

@@ -151,9 +151,18 @@ function candidatesBlock(cands) {
   return det;
 }
 
+function circuitCard(result) {
+  const c = result.circuit;
+  const card = el("article", { class: `line-card circuit-card verdict-${c.verdict}`, "data-circuit-card": "" });
+  card.append(el("h3", { class: "line-title" }, badge(c.verdict), " ", el("span", {}, declared("circuit").label)));
+  card.append(checksBlock(c.checks || []));
+  return card;
+}
+
 function lineCards(result, job) {
   const box = document.getElementById("line-results");
   box.replaceChildren();
+  if (result.circuit) box.append(circuitCard(result));
   (result.lines || []).forEach((line, li) => {
     const verdict = line.verdict;
     const card = el("article", { class: `line-card verdict-${verdict}`, "data-line-card": String(li) });
@@ -182,8 +191,11 @@ function thermalBlock(result) {
   const T = U("temp_c");
   row("Steady temperature", th.steady_temp_c == null ? "not found" : el("span", {}, numCell("span", th.steady_temp_c, "temp_c", "steady_temp_c"), ` ${T}`));
   row("Fluid limit", el("span", {}, numCell("span", th.limit_c, "temp_c", "limit_c"), ` ${T}`));
-  row("Full lock: time to the limit", th.full_lock_seconds_to_limit == null ? "not reached in the hold shown"
+  row("Full lock: fluid in the pump reaches the limit after", th.full_lock_seconds_to_limit == null ? "not reached"
     : el("span", {}, numCell("span", th.full_lock_seconds_to_limit, "time_s", "full_lock_seconds_to_limit"), " s"));
+  const bulk = th.full_lock && th.full_lock.bulk_seconds_to_limit;
+  row("Full lock: whole fluid, mixed, after", bulk == null ? "not reached"
+    : el("span", {}, numCell("span", bulk, "time_s", "bulk_seconds_to_limit"), " s"));
   row("Cooler needed", th.cooler_needed_w_per_k == null ? "–" : (th.cooler_needed_w_per_k === 0 ? "none"
     : el("span", {}, numCell("span", th.cooler_needed_w_per_k, "conductance_w_k", "cooler_needed_w_per_k"), ` ${U("conductance_w_k")}`)));
   card.append(dl, checksBlock(th.checks || []));
@@ -256,6 +268,11 @@ function summaryBlock(result) {
       resCell("td", line.pressure_drop_max_bar, "lines[].pressure_drop_max_bar", "max_drop_bar", [2, 1]),
       resCell("td", line.rating ? line.rating.margin : null, "lines[].rating.margin", "margin", 2)));
   });
+  if (result.circuit) {
+    const bad = (result.circuit.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
+    tb.append(el("tr", { "data-summary-line": "circuit" }, el("th", { scope: "row" }, declared("circuit").label.toLowerCase()),
+      el("td", {}, badge(result.circuit.verdict)), el("td", {}, bad.length ? bad.join(", ") : "none"), el("td"), el("td")));
+  }
   if (result.thermal) {
     const bad = (result.thermal.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
     tb.append(el("tr", { "data-summary-line": "thermal" }, el("th", { scope: "row" }, "fluid temperature"),
@@ -325,10 +342,14 @@ export function renderPlots(result, sweep) {
   }
   const th = result.thermal;
   if (th && Array.isArray(th.full_lock_curve) && th.full_lock_curve.length) {
+    const C = "thermal.full_lock_curve[].";
     grid.append(el("figure", { class: "plot" }, lineChart({
       id: "temp-vs-time", title: "Fluid temperature at full lock",
       xLabel: "time held at full lock (s)", yLabel: `fluid temperature (${T})`,
-      series: [{ name: "fluid temperature", points: th.full_lock_curve.map((p) => [p.t_s, toShow(p.temp_c, "temp_c")]), markers: false }],
+      series: [
+        { name: declared(`${C}pump_temp_c`).label.toLowerCase(), points: th.full_lock_curve.map((p) => [p.t_s, toShow(p.pump_temp_c, "temp_c")]), markers: false },
+        { name: declared(`${C}bulk_temp_c`).label.toLowerCase(), points: th.full_lock_curve.map((p) => [p.t_s, toShow(p.bulk_temp_c, "temp_c")]), markers: false },
+      ],
       hlines: [{ y: toShow(th.limit_c, "temp_c"), label: `fluid limit ${fmt(th.limit_c, "temp_c")} ${T}` }],
     })));
   } else {
