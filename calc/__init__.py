@@ -8,9 +8,12 @@ The layers, each importing only the ones above it in this list:
 - ``calc.data``: the part tables with their provenance, and the practice constants;
 - ``calc.model``: the job declaration, the result declaration and the prepared (read-only) job;
 - ``calc.system``: the circuit as a system of parts: compiled lines, operating points, the
-  thermal model, part ratings, thread identification and adapter plans;
-- ``calc.stages``: ports, circuit, ratings, selection and thermal; each returns its own section
-  of the result with its checks in words;
+  thermal model, part ratings, thread identification, adapter plans, the assembly's cut length
+  and bends, and a hose re-sized with its ends;
+- ``calc.checks``: the rules that judge a line as built, in words, with the edit that carries out
+  their advice; the same for a line and for a candidate assembly;
+- ``calc.stages``: ports, assembly, circuit, lines, selection and thermal; each returns its own
+  section of the result;
 - ``calc.pipeline``: ``evaluate`` and ``sweep``, which run the stages in order;
 - ``calc.edges``: the API the browser worker calls, the command line, the text report, units.
 """

@@ -5,16 +5,20 @@ no I/O. The result's shape is declared once, in ``calc.model.result``.
 """
 from __future__ import annotations
 
+from .data.tables import fitting_families
+from .model.job import path_words
 from .model.prepared import prepare
 from .model.result import worst_verdict
 from .physics.sizes import dash_of_mm
+from .stages.assembly import assembly_record, assembly_stage
 from .stages.circuit import circuit_stage
+from .stages.lines import last_feed_line, lines_stage
 from .stages.ports import ports_stage
-from .stages.ratings import ratings_stage
 from .stages.selection import selection_stage
 from .stages.thermal import thermal_stage
 from .system.circuit import Circuit
 from .system.line import part_bore_mm
+from .system.naming import part_ref
 
 __all__ = ["evaluate", "sweep", "drop_curve", "run", "METHODS", "DROP_CURVE_STEPS"]
 
@@ -27,28 +31,46 @@ METHODS = (
     "K = 2 laminar, 1 turbulent.",
     "Gear valve at neutral: an orifice whose loss is K = K_inf + K1/Re (Hooper's two-constant form), fitted to its measured drop, or to two measured drops at different temperatures.",
 )
+#: Fitting families sized by the dash size of their hose or tube (not by a tube diameter in mm).
+FITTING_SIXTEENTHS = frozenset(k for k, f in fitting_families().items() if "mm" not in f["size_basis"])
 _FLUID_KEYS = ("name", "preset", "visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk",
                "max_temp_c", "source")
 
 
-def _refused(problems, warnings) -> dict:
-    return {"ok": False, "errors": [p.as_dict() for p in problems], "warnings": [w.as_dict() for w in warnings]}
+def _worded(problems, job) -> list[dict]:
+    """Problems with their field in words (``calc.model.job.path_words``) beside the path."""
+    return [dict(p.as_dict(), label=path_words(p.path, job)) for p in problems]
+
+
+def _refused(problems, warnings, job) -> dict:
+    return {"ok": False, "errors": _worded(problems, job), "warnings": _worded(warnings, job)}
+
+
+def _own_dash(p) -> int | None:
+    """The dash size the part is sized by: a hose's, or a fitting's in a family sized in sixteenths."""
+    if p["kind"] == "hose" or (p["kind"] == "fitting" and p.get("family") in FITTING_SIXTEENTHS):
+        return p.get("dash")
+    return None
 
 
 def _part_row(k: int, p) -> dict:
     size = p["od_mm"] if p["kind"] == "tube" else part_bore_mm(p)
     dash, _, exact = dash_of_mm(size) if size else (None, None, False)
-    return {"index": k, "job_part": p.place, "adapter": p.adapter, "kind": p["kind"], "size_mm": size,
-            "dash": dash, "dash_exact": exact}
+    if _own_dash(p) is not None:
+        dash, exact = _own_dash(p), True
+    return {"index": k, "job_part": p.place, "adapter": p.adapter, "label": part_ref(p), "kind": p["kind"],
+            "size_mm": size, "dash": dash, "dash_exact": exact}
 
 
-def _line(ln, ports, circuit, j: int, checks: list, rating: dict, candidates: list) -> dict:
+def _line(ln, stages, j: int) -> dict:
+    ports, assembly, circuit, lines, selection = stages
     drop = circuit.largest_drops[j]
-    return {"index": ln.index, "name": ln.name, "role": ln.role, "verdict": worst_verdict(checks),
-            "pressure_drop_max_bar": drop["bar"], "pressure_drop_max_at": drop["at"], "checks": checks,
+    a = assembly.assemblies[j]
+    return {"index": ln.index, "name": ln.name, "role": ln.role, "verdict": lines.verdicts[j],
+            "pressure_drop_max_bar": drop["bar"], "pressure_drop_max_at": drop["at"], "checks": lines.checks[j],
             "ports": {"from_port": ports.plans[j]["from_port"], "to_port": ports.plans[j]["to_port"]},
-            "parts": [_part_row(k, p) for k, p in enumerate(ln.parts)],
-            "rating": rating, "candidates": candidates}
+            "parts": [_part_row(k, p) for k, p in enumerate(a.parts)], "assembly": assembly_record(a),
+            "rating": lines.ratings[j], "candidates": selection.candidates[j]}
 
 
 def run(job) -> dict:
@@ -64,23 +86,23 @@ def run(job) -> dict:
         The result, every figure in SI or with its unit in the key.
     """
     ports = ports_stage(job)                          # adapter plans: they become parts of the lines
-    circuit = circuit_stage(job, ports)               # operating points, node pressures, hydraulic checks
-    ratings = ratings_stage(job, circuit)             # margins, weakest part, rating checks
-    selection = selection_stage(job, circuit, ratings)  # hose candidates
-    thermal = thermal_stage(job, circuit, ratings)    # heat, steady temperature, full lock, cooler
-    lines = [_line(ln, ports, circuit, j, ports.checks[j] + circuit.checks[j] + ratings.checks[j] + thermal.checks[j],
-                   ratings.ratings[j], selection.candidates[j])
-             for j, ln in enumerate(circuit.model.lines)]
-    warnings = [*job.warnings, *circuit.validity_warnings, *ratings.warnings]
+    assembly = assembly_stage(job, ports)             # cut lengths and route bends, worked out once
+    circuit = circuit_stage(job, assembly)            # operating points, node pressures, relief and gear
+    lines = lines_stage(job, ports, assembly, circuit)  # ratings and every check of each line
+    selection = selection_stage(job, ports, circuit, last_feed_line(job))  # whole-assembly hose candidates
+    thermal = thermal_stage(job, circuit, lines.ratings)  # heat, steady temperature, full lock, cooler
+    stages = (ports, assembly, circuit, lines, selection)
+    out_lines = [_line(ln, stages, j) for j, ln in enumerate(circuit.model.lines)]
+    warnings = [*job.warnings, *circuit.validity_warnings, *lines.warnings]
     return {
         "ok": True,
         "job_name": job.job["name"],
         "fluid": {k: job.fluid[k] for k in _FLUID_KEYS},
         "conditions": [{**op, **heat} for op, heat in zip(circuit.conditions, thermal.heat)],
         "circuit": {"verdict": worst_verdict(circuit.circuit_checks), "checks": list(circuit.circuit_checks)},
-        "lines": lines,
+        "lines": out_lines,
         "thermal": thermal.thermal,
-        "warnings": [w.as_dict() for w in warnings],
+        "warnings": _worded(warnings, job.raw),
         "methods": list(METHODS),
         "pump_curve": circuit.pump_curve,
     }
@@ -110,12 +132,12 @@ def evaluate(job) -> dict:
     """
     prepared, problems, warnings = prepare(job)
     if problems:
-        return _refused(problems, warnings)
+        return _refused(problems, warnings, job)
     return run(prepared)
 
 
 def _solve_without_detail(prepared, conditions) -> dict:
-    circuit = Circuit(prepared, ports_stage(prepared).built_parts)
+    circuit = Circuit(prepared, assembly_stage(prepared, ports_stage(prepared)).built_parts)
     conds = [circuit.operating_point(c, detail=False) for c in conditions]
     return {"ok": True, "lines": [{"name": ln.name, "role": ln.role} for ln in circuit.lines],
             "conditions": [{k: c[k] for k in ("name", "fluid_temp_c", "viscosity_cst", "pump_outlet_bar",
@@ -137,7 +159,7 @@ def sweep(job) -> dict:
     """
     prepared, problems, warnings = prepare(job)
     if problems:
-        return _refused(problems, warnings)
+        return _refused(problems, warnings, job)
     return _solve_without_detail(prepared, prepared.conditions)
 
 
@@ -168,7 +190,7 @@ def drop_curve(job) -> dict:
     """
     prepared, problems, warnings = prepare(job)
     if problems:
-        return _refused(problems, warnings)
+        return _refused(problems, warnings, job)
     conds = prepared.conditions
     temps = [c["fluid_temp_c"] for c in conds]
     lo = min(temps)

@@ -5,7 +5,7 @@ Every check that compares with a limit of practice reads it here, so a limit has
 from __future__ import annotations
 
 __all__ = ["INLET_MIN_BAR", "INLET_FLOOR_BAR", "COLD_START_MAX_C", "VELOCITY_BANDS_M_S", "TEMP_CAUTION_K", "LOW_PRESSURE_BAR", "TABLE_ROUNDING",
-           "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE"]
+           "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE", "DP_BUDGET_BAR", "PROOF_TEST_FACTOR", "METRIC_END_WINDOW"]
 
 #: Lowest pump-inlet gauge pressure before aeration and cavitation, bar (common practice, no source).
 INLET_MIN_BAR = -0.2
@@ -35,6 +35,21 @@ TABLE_ROUNDING = 0.005
 #: The full-lock curve ends this far above the fluid's limit, K (a stated choice: the lumped model means
 #: nothing far above the limit).
 CURVE_OVER_LIMIT_K = 25.0
+
+#: Pressure-drop budgets by line role, bar: (warm operating points, cold start). Common practice, no source:
+#: a warm pressure line should lose no more than a few per cent of a typical 80-110 bar relief setting, a warm
+#: return line a few bar (its drop is back-pressure on the gear's seals); at cold start drops several times
+#: larger are accepted while the fluid warms. The feed line's budget is the pump-inlet limit. A line's own
+#: budget fields override these.
+DP_BUDGET_BAR = {"pressure": (5.0, 25.0), "return": (3.0, 10.0), "feed": (None, None)}
+
+#: Proof-test pressure of a hose assembly as a multiple of its working pressure (common practice, no source:
+#: assemblies are proof tested at twice their rated working pressure).
+PROOF_TEST_FACTOR = 2.0
+
+#: Tube outside diameter of a metric hose end against the hose's bore: from 0.9 x bore to bore + 7 mm
+#: (common practice, no source: a hose takes ends one or two tube sizes over its bore).
+METRIC_END_WINDOW = (0.9, 7.0)
 
 #: Tolerances of thread identification (see ``calc.system.threads`` for the reasoning).
 THREAD_TOLERANCE = {

@@ -5,6 +5,7 @@ to the display system by ``calc.edges.units``; the sentences are localized the s
 """
 from __future__ import annotations
 
+from ..model.job import field_unit
 from ..model.result import field_at
 from .units import label, localize_result, to_display
 
@@ -42,13 +43,14 @@ class _Show:
 
 
 def _rating_lines(ln: dict, s: _Show) -> list[str]:
-    """The rating of one line: assembly working and burst, margin, weakest part."""
+    """The rating of one line: assembly working and burst, proof test, margin, weakest part, drop budgets."""
     r = ln["rating"]
 
-    def p(v, key):
-        return "unknown" if v is None else s.fig(v, f"lines[].rating.{key}", "{:.0f}")
+    def p(v, key, fmt="{:.0f}"):
+        return "unknown" if v is None else s.fig(v, f"lines[].rating.{key}", fmt)
     out = [f"    rating: working {p(r['working_bar'], 'working_bar')}, burst {p(r['burst_bar'], 'burst_bar')}, "
-           f"must hold {s.fig(r['required_bar'], 'lines[].rating.required_bar', '{:.1f}')} ({r['required_basis']})"]
+           f"proof test {p(r['proof_test_bar'], 'proof_test_bar')} (2 x working, common practice); "
+           f"must hold {p(r['required_bar'], 'required_bar', '{:.1f}')} ({r['required_basis']})"]
     wp = r["weakest_part"]
     if r["required_bar"] < 1.0:
         head = "    margin: not limiting, the line stays near atmospheric"
@@ -57,27 +59,58 @@ def _rating_lines(ln: dict, s: _Show) -> list[str]:
         burst = "unknown" if r["burst_margin"] is None else f"{r['burst_margin']:.1f}:1"
         head = (f"    margin {margin} (working / required), burst margin {burst} against "
                 f"{r['design_factor']:g}:1")
-    out.append(head + "; weakest part: " + (f"{wp['index']} {wp['description']}" if wp else "none rated")
-               + (f"; unrated parts: {', '.join(map(str, r['unrated_parts']))}" if r["unrated_parts"] else ""))
+    out.append(head + "; weakest part: " + (wp["label"] if wp else "none rated"))
+    budgets = [f"{p(r[k], k, '{:g}')} {w}" for k, w in (("dp_budget_bar", "warm"), ("dp_budget_cold_bar", "at cold start"))
+               if r[k] is not None]
+    if budgets:
+        out.append("    pressure-drop budget: " + ", ".join(budgets)
+                   + f"; largest drop {s.fig(ln['pressure_drop_max_bar'], 'lines[].pressure_drop_max_bar')} at "
+                     f"‘{ln['pressure_drop_max_at']}’")
     return out
 
 
+def _assembly_lines(ln: dict, s: _Show) -> list[str]:
+    """The hose assembly: cut length, end to end, slack, bends and where they come from."""
+    a = ln["assembly"]
+    if a["hose_cut_mm"] is None:
+        return []
+    a_ = "lines[].assembly."
+    src = {"route": "from the route and the slack it needs", "overall": "from the overall length",
+           "typed": "as typed"}[a["length_source"]]
+    out = [f"    assembly: part {a['hose_part'] + 1} cut to {s.fig(a['hose_cut_mm'], a_ + 'hose_cut_mm', '{:.0f}')} "
+           f"({src}), {s.fig(a['overall_mm'], a_ + 'overall_mm', '{:.0f}')} end to end with "
+           f"{s.fig(a['cutoff_mm'], a_ + 'cutoff_mm', '{:.0f}')} of cut-off allowances"]
+    if a["slack_mm"] is not None:
+        out[-1] += (f"; slack {s.fig(a['slack_mm'], a_ + 'slack_mm', '{:.0f}')} over the route, "
+                    f"{s.fig(a['slack_needed_mm'], a_ + 'slack_needed_mm', '{:.0f}')} needed")
+    if a["bends"]:
+        out.append("    bends" + (" (from the route)" if a["bends_from_route"] else "") + ": " + ", ".join(
+            f"{b['angle_deg']:.0f} deg at {s.fig(b['radius_mm'], a_ + 'bends[].radius_mm', '{:.0f}')}"
+            for b in a["bends"]))
+    return out
+
+
+def _fix_words(fx: dict, s: _Show) -> str:
+    unit = field_unit(fx["path"])
+    value = fx["value"]
+    shown = f"{to_display(value, unit, s.units):.4g} {label(unit, s.units)}".strip() if unit else str(value)
+    return f"        edit: set {fx['label']} to {shown}"
+
+
 def _candidate_lines(ln: dict, s: _Show, show: int = 5) -> list[str]:
-    """Ranked hose candidates of one line: the passing ones, then why the first rejected ones fail."""
+    """Hose candidates of one line as whole assemblies: the passing ones, then why the first rejected ones fail."""
     cands = ln["candidates"]
     ok = [c for c in cands if c["verdict"] != "fail"]
     bad = [c for c in cands if c["verdict"] == "fail"]
-    out = [f"    hose candidates: {len(ok)} pass, {len(bad)} rejected (smallest, then lightest first)"
-           + ("" if ln["rating"].get("dp_budget_bar") is not None else
-              "; no pressure-drop budget set (dp_budget_bar), so the drop does not limit the size")]
-    for c in ok[:show]:
-        out.append(f"      {c['verdict']:<7} {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): v "
-                   f"{s.fig(c['velocity_max_m_s'], 'lines[].candidates[].velocity_max_m_s')}, drop "
-                   f"{s.fig(c['pressure_drop_bar'], 'lines[].candidates[].pressure_drop_bar')}"
-                   + (f"; {'; '.join(c['reasons'])}" if c["reasons"] else ""))
-    for c in bad[:max(0, show - len(ok[:show])) or 2]:
-        out.append(f"      fail    {c['class']} -{c['dash']} ({c['bore_mm']:g} mm): {', '.join(c['failed'])}: "
-                   + "; ".join(c["reasons"]))
+    c_ = "lines[].candidates[]."
+    out = [f"    hose candidates (whole assemblies, ends re-sized): {len(ok)} pass, {len(bad)} rejected"]
+    for c in ok[:show] + bad[:max(0, show - len(ok[:show])) or 2]:
+        out.append(f"      [{c['verdict']:^7}] {c['class']} -{c['dash']} ({s.fig(c['bore_mm'], c_ + 'bore_mm')})"
+                   + (" (the line's own)" if c["current"] else "")
+                   + f": drop {s.fig(c['pressure_drop_bar'], c_ + 'pressure_drop_bar')} at ‘{c['pressure_drop_at']}’, "
+                     f"v {s.fig(c['velocity_max_m_s'], c_ + 'velocity_max_m_s')}"
+                   + (f"; fails {', '.join(c['failed'])}" if c["failed"] else "")
+                   + (f"; {c['note']}" if c["note"] else ""))
     return out
 
 
@@ -151,7 +184,8 @@ def _condition_lines(c: dict, s: _Show) -> list[str]:
                    f"dT {s.fig(ln['temp_rise_c'], _LINE + 'temp_rise_c', '{:.3f}')}")
         out.append(f"      {'#':>3} {'part':<9} {'v ' + v_unit:>10} {'Re':>8} {'regime':<13} {'drop ' + p_unit:>11}")
         for pt in ln.get("parts", []):
-            out.append(f"      {pt['index']:>3} {pt['kind']:<9} {s.num(pt['velocity_m_s'], _PART + 'velocity_m_s'):>10} "
+            place = "adapter" if pt["job_part"] is None else str(pt["job_part"] + 1)
+            out.append(f"      {place:>3} {pt['kind']:<9} {s.num(pt['velocity_m_s'], _PART + 'velocity_m_s'):>10} "
                        f"{pt['reynolds']:>8.0f} {pt['regime']:<13} "
                        f"{s.num(pt['pressure_drop_bar'], _PART + 'pressure_drop_bar', '{:.4f}'):>11}")
     return out + [""]
@@ -178,16 +212,21 @@ def text_report(res: dict, units: str = "metric") -> str:
         out.append(f"Pump, relief and gear: [{circuit['verdict']}]")
         for ch in circuit["checks"]:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+            if ch.get("fix"):
+                out.append(_fix_words(ch["fix"], s))
         out.append("")
     out.append("Checks per line")
     rated = False
     for ln in res["lines"]:
-        out.append(f"  {ln['name']} ({ln['role']})")
+        out.append(f"  Line {ln['index'] + 1}: {ln['name']} ({ln['role']}) [{ln['verdict']}]")
         if "rating" in ln:
             rated = True
             out.extend(_rating_lines(ln, s))
+        out.extend(_assembly_lines(ln, s))
         for ch in ln["checks"]:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
+            if ch.get("fix"):
+                out.append(_fix_words(ch["fix"], s))
         if ln.get("candidates"):
             out.extend(_candidate_lines(ln, s))
     if res.get("thermal"):
@@ -196,7 +235,7 @@ def text_report(res: dict, units: str = "metric") -> str:
         out.append("")
         out.append("Warnings")
         for w in res["warnings"]:
-            out.append(f"  {w['path']}: {w['message']}")
+            out.append(f"  {w['label']}: {w['message']}")
     out.append("")
     out.append("Methods: " + " ".join(res.get("methods", [])))
     if rated:

@@ -107,8 +107,13 @@ _FIGURE = re.compile(rf"(?<![\w.]){_NUM}(?:{_SEP}{_NUM})* (?:{_UNIT_ALT})(?![\w/
 _ONE = re.compile(_NUM)
 
 
+#: The user's own words inside an engine sentence are quoted ‘like this’ (``calc.checks.case.said``).
+_QUOTED = re.compile(r"(‘[^’]*’)")
+
+
 def localize_text(text: str, system: str = "metric") -> str:
-    """Rewrite the metric figures of an engine sentence in the display system.
+    """Rewrite the metric figures of an engine sentence in the display system; the user's own words, quoted
+    ‘like this’, are left as they were written.
 
     Examples
     --------
@@ -116,9 +121,15 @@ def localize_text(text: str, system: str = "metric") -> str:
     'must hold 1540 psi; the fluid runs -40 to 212 F'
     >>> localize_text("velocity 4.4 m/s exceeds 2-6 m/s; use -6 or a larger bore (at least 8.0 mm)", "us")
     'velocity 14.4 ft/s exceeds 6.56-19.7 ft/s; use -6 or a larger bore (at least 0.315 in)'
+    >>> localize_text("at ‘idle at 20 C’ (20 C)", "us")
+    'at ‘idle at 20 C’ (68 F)'
     """
     if system != "us" or not isinstance(text, str):
         return text
+    return "".join(part if _QUOTED.fullmatch(part) else _localize_figures(part) for part in _QUOTED.split(text))
+
+
+def _localize_figures(text: str) -> str:
 
     def one(m):
         figure = m.group(0)

@@ -29,12 +29,13 @@ import math
 from ..data.tables import fitting_families, fluid_presets
 from ..physics.fluid import NU_MAX_CST
 from ..physics.valve import valve_constants_one_point, valve_constants_two_points
+from .assembly import assembly_hose
 from .fluid import resolve_fluid, state_of
 from .schema import REQUIRED, Field, ListOf, Record, Variants, validate, Problem
 
 __all__ = ["JOB_VERSION", "JOB", "PART", "PORT", "LINE", "CONDITION", "DEFAULT_CONDITIONS", "FLUID_PRESETS",
            "LINE_ROLES", "FITTING_SHAPES", "FITTING_FAMILIES", "TUBE_MATERIALS", "SEAL_TYPES", "describe_job",
-           "validate_job", "gear_constants"]
+           "validate_job", "gear_constants", "field_label", "path_words", "field_unit"]
 
 JOB_VERSION = 1
 
@@ -71,8 +72,9 @@ HOSE = Record("hose", "Hose", (
           help="Dash size: inside diameter in sixteenths of an inch (-6 = 3/8 in)."),
     Field("bore_mm", "Bore", unit="length_mm", default=None, ge=0.5, le=100, warn_below=3, warn_above=40,
           help="Inside diameter. Filled from the class and dash size when left empty."),
-    Field("length_m", "Length", unit="length_m", default=REQUIRED, ge=0.001, le=50, warn_above=10,
-          help="Flow length of the hose between fitting stems."),
+    Field("length_m", "Length", unit="length_m", default=None, ge=0.001, le=50, warn_above=10,
+          help="Flow length of the hose between fitting stems. The line's hose assembly may leave it empty when "
+               "the line gives its route points or overall length: its cut length is then worked out from them."),
     Field("roughness_mm", "Wall roughness", unit="length_mm", default=0.005, ge=0, le=1,
           help="Absolute roughness of the bore; 0.005 mm is typical of rubber hose (from memory)."),
     _bends(), _rise,
@@ -189,7 +191,12 @@ LINE = Record("line", "Line", (
     ListOf("parts", "Parts", PART, default=REQUIRED, min_items=1, max_items=60,
            help="The parts of the line in flow order. Only the parts listed are computed."),
     Field("dp_budget_bar", "Pressure-drop budget", unit="pressure_bar", default=None, gt=0, le=500,
-          help="Largest acceptable pressure drop along this line, for hose selection."),
+          help="Largest acceptable pressure drop along this line at a warm operating point. Empty: 5 bar on a "
+               "pressure line, 3 bar on a return line (common practice); a feed line is held to the pump-inlet "
+               "limit instead."),
+    Field("dp_budget_cold_bar", "Pressure-drop budget at cold start", unit="pressure_bar", default=None, gt=0,
+          le=500, help="Largest acceptable drop at a cold-start operating point (10 C or colder). Empty: 25 bar on a "
+                       "pressure line, 10 bar on a return line (common practice)."),
     Field("engine_movement_mm", "Engine movement", unit="length_mm", default=0.0, ge=0, le=500,
           help="Relative movement of the two ends on the engine mounts; needs slack in the hose."),
     Field("overall_length_mm", "Overall assembly length", unit="length_mm", default=None, gt=0, le=50000,
@@ -356,6 +363,113 @@ JOB = Record("job", "Job", (
 ))
 
 
+def _labels() -> dict:
+    out = {}
+
+    def walk(rec):
+        fields = rec.fields if hasattr(rec, "fields") else ()
+        out.setdefault(rec.key, {}).update({f.key: f.label for f in fields})
+        for f in fields:
+            if isinstance(f, Record):
+                walk(f)
+            elif isinstance(f, ListOf):
+                item = f.item
+                for r in (item.variants.values() if isinstance(item, Variants) else [item]):
+                    walk(r)
+    walk(JOB)
+    return out
+
+
+_LABELS = _labels()
+
+
+def _units() -> dict:
+    out = {}
+
+    def walk(spec):
+        item = spec.item if isinstance(spec, ListOf) else spec
+        for rec in (item.variants.values() if isinstance(item, Variants) else [item]):
+            for f in getattr(rec, "fields", ()):
+                if isinstance(f, Field):
+                    out.setdefault(f.key, f.unit)
+                else:
+                    walk(f)
+    walk(JOB)
+    return out
+
+
+_UNITS = _units()
+
+
+def field_unit(path: str) -> str | None:
+    """The unit kind of the job field at a path (its last key: keys carry their unit, so it is one per key).
+
+    Examples
+    --------
+    >>> field_unit("lines[0].parts[1].length_m"), field_unit("lines[0].to_port.line_end_dash")
+    ('length_m', None)
+    """
+    return _UNITS.get(path.rsplit(".", 1)[-1])
+
+
+def field_label(record: str, key: str) -> str:
+    """The label of a field of a record of the job model, as the form shows it.
+
+    Examples
+    --------
+    >>> field_label("hose", "length_m"), field_label("line", "overall_length_mm")
+    ('Length', 'Overall assembly length')
+    """
+    return _LABELS[record][key]
+
+
+#: How an item of each list is named in words, counting from 1.
+_ITEM_WORDS = {"lines": "line", "parts": "part", "bends": "bend", "conditions": "operating point"}
+_RECORD_WORDS = {"from_port": "the start port", "to_port": "the end port"}
+
+
+def path_words(path: str, job=None) -> str:
+    """A field path in words, as the form labels it, counting from 1: "Bore of part 2 of line 1".
+
+    ``job`` (the job the path is in) tells which kind a part is; without it a part's field is labelled from the
+    first kind that has it.
+
+    Examples
+    --------
+    >>> path_words("lines[0].parts[1].bends[0].radius_mm")
+    'Centre-line radius of bend 1 of part 2 of line 1'
+    >>> path_words("lines[2].to_port.line_end_dash"), path_words("pump.relief_bar")
+    ('Line end size (dash) of the end port of line 3', 'Relief setting')
+    """
+    from .edits import parse_path  # same layer: the path syntax is the edits'
+    spec, value, where, label = JOB, job, [], None
+    steps = parse_path(path)
+    for k, step in enumerate(steps):
+        if isinstance(step, int):
+            where.append(f"{_ITEM_WORDS.get(steps[k - 1], 'item')} {step + 1}")
+            value = value[step] if isinstance(value, (list, tuple)) and step < len(value) else None
+            spec = spec.item if isinstance(spec, ListOf) else spec
+            if isinstance(spec, Variants):
+                tag = value.get(spec.tag) if isinstance(value, dict) else None
+                nxt = steps[k + 1] if k + 1 < len(steps) else None
+                if nxt == spec.tag:
+                    return " of ".join(["Kind"] + where[::-1])
+                spec = spec.variants.get(tag) or next((r for r in spec.variants.values()
+                                                       if any(f.key == nxt for f in r.fields)), spec)
+            continue
+        fields = {f.key: f for f in getattr(spec, "fields", ())}
+        spec = fields.get(step)
+        value = value.get(step) if isinstance(value, dict) else None
+        if spec is None:
+            return path
+        if isinstance(spec, Record) and k + 1 < len(steps):
+            if step in _RECORD_WORDS:  # other records (pump, gear, thermal, cooler): their fields' labels say it
+                where.append(_RECORD_WORDS[step])
+            continue
+        label = spec.label
+    return " of ".join([label or path] + where[::-1])
+
+
 def describe_job() -> dict:
     """The job model as JSON: every field with label, unit kind, default, limits and help."""
     presets = fluid_presets()
@@ -460,10 +574,10 @@ def _line_checks(i: int, ln: dict, problems: list) -> None:
         if p["kind"] == "device" and p["scaling"] == "viscous" and p["at_visc_cst"] is None:
             problems.append(Problem(f"{path}.at_visc_cst", "is missing (viscous scaling needs the "
                                                            "viscosity at which the drop was measured)"))
-        if p["kind"] == "fitting" and p["family"] == "barb-clamp" and ln["role"] == "pressure":
-            problems.append(Problem(f"{path}.family", "a barbed nipple with a clamp must not be used "
-                                                      "on a pressure line; use a crimped or "
-                                                      "reusable pressure fitting"))
+        if p["kind"] == "hose" and p["length_m"] is None and not (
+                k == assembly_hose(ln["parts"]) and (ln["route_points_mm"] or ln["overall_length_mm"])):
+            problems.append(Problem(f"{path}.length_m", "is missing: give the hose's length, or the line's route "
+                                                        "points or overall assembly length for its assembly hose"))
     if ln["route_points_mm"] is not None and len(ln["route_points_mm"]) == 1:
         problems.append(Problem(f"lines[{i}].route_points_mm", "needs at least two points"))
 

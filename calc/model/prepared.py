@@ -7,14 +7,15 @@ so no stage can edit what it was given.
 """
 from __future__ import annotations
 
+import json
 from dataclasses import dataclass
 
-from ..data.frozen import FrozenDict, freeze
+from ..data.frozen import FrozenDict, freeze, thaw
 from ..data.tables import find_class, fitting_families, hose_classes, size_row
-from .job import validate_job
-from .schema import Problem
+from .job import PART, validate_job
+from .schema import Problem, validate
 
-__all__ = ["Part", "PreparedLine", "PreparedJob", "prepare", "sizes_text"]
+__all__ = ["Part", "PreparedLine", "PreparedJob", "prepare", "prepare_line_parts", "changed_part", "sizes_text"]
 
 _HOSE_TABLE_FIELDS = ("bore_mm", "working_bar", "burst_bar", "min_bend_radius_mm", "max_temp_c")
 
@@ -69,11 +70,13 @@ class PreparedLine:
 @dataclass(frozen=True)
 class PreparedJob:
     """The job every stage reads: ``job`` (validated, defaults filled, fluid resolved, frozen),
-    ``lines`` (``PreparedLine``) and the validation ``warnings``."""
+    ``lines`` (``PreparedLine``), the validation ``warnings`` and ``raw``, the job as the user wrote it
+    (frozen; edits the engine proposes are made on it, so they hold no filled-in defaults)."""
 
     job: FrozenDict
     lines: tuple
     warnings: tuple
+    raw: FrozenDict
 
     @property
     def fluid(self) -> FrozenDict:
@@ -158,9 +161,9 @@ def _fitting_size_problem(p: dict, path: str) -> Problem | None:
                                    f"{sizes_text(rows, metric)} ({fam['size_basis']}); or give working_bar")
 
 
-def _prepare_parts(i: int, parts: list, problems: list) -> tuple:
+def _prepare_parts(i: int, parts: list, problems: list, first: int = 0) -> tuple:
     out = []
-    for k, p in enumerate(parts):
+    for k, p in enumerate(parts, first):
         path = f"lines[{i}].parts[{k}]"
         if p["kind"] == "hose":
             out.append(_hose_part(freeze(p), k, path, problems))
@@ -171,6 +174,61 @@ def _prepare_parts(i: int, parts: list, problems: list) -> tuple:
                 problems.append(problem)
         out.append(Part(freeze(p), k))
     return tuple(out)
+
+
+def prepare_line_parts(i: int, raw_parts, cache: dict | None = None, only=None) -> tuple[dict, list[Problem]]:
+    """Parts of line ``i`` as the user would write them, validated and prepared (hose data from the tables).
+
+    For parts the engine itself proposes (a candidate assembly): the same validation and table fill as
+    ``prepare``, part by part. ``only``, when given, names the places to prepare; ``cache`` keeps each
+    prepared part by its place and content, so the many candidates of one line prepare a part once.
+
+    Returns
+    -------
+    parts, problems
+        Place -> prepared ``Part``, and the problems found (empty for valid parts).
+    """
+    problems: list[Problem] = []
+    out = {}
+    for k in (range(len(raw_parts)) if only is None else only):
+        raw = raw_parts[k]
+        key = (k, json.dumps(raw, sort_keys=True)) if cache is not None else None
+        hit = cache.get(key) if key is not None else None
+        if hit is None:
+            norm, probs, _ = validate(PART, thaw(raw))
+            hit = (_prepare_parts(i, [norm], probs, first=k)[0] if not probs else None, tuple(probs))
+            if key is not None:
+                cache[key] = hit
+        problems.extend(hit[1])
+        out[k] = hit[0]
+    return out, problems
+
+
+def changed_part(part: Part, changes: dict, line: int) -> tuple[Part, list[Problem]]:
+    """A prepared user part with some of its fields changed, prepared again: what ``prepare`` gives for the
+    part written with those changes (a change to None takes the field back to its default, which is None
+    for every field the engine changes: a hose's class, size and datasheet figures, a fitting's size and
+    bore). Faster than ``prepare_line_parts`` for the engine's own edits: nothing is validated again.
+
+    Examples
+    --------
+    >>> job, _, _ = prepare({"version": 1, "name": "x", "fluid": {"preset": "atf-typical"},
+    ...                      "pump": {"displacement_cc_rev": 10, "relief_bar": 90, "flow_limit_lpm": 8},
+    ...                      "gear": {"neutral_drop_bar": 2, "at_flow_lpm": 8},
+    ...                      "lines": [{"name": "p", "role": "pressure", "parts": [
+    ...                          {"kind": "hose", "class": "SAE 100R2AT", "dash": 6, "length_m": 1}]}]})
+    >>> new, _ = changed_part(job.lines[0].parts[0], {"dash": 8}, 0)
+    >>> new["bore_mm"], new.size_row["dash"]
+    (12.7, 8)
+    """
+    fields = dict(part)
+    if part["kind"] == "hose":  # the old class's figures go: only the user's own stay
+        for f in _HOSE_TABLE_FIELDS:
+            if part.sources.get(f) != "user":
+                fields[f] = None
+    fields.update(changes)
+    problems: list[Problem] = []
+    return _prepare_parts(line, [fields], problems, first=part.place)[0], problems
 
 
 def prepare(job) -> tuple[PreparedJob | None, list[Problem], list[Problem]]:
@@ -211,4 +269,4 @@ def prepare(job) -> tuple[PreparedJob | None, list[Problem], list[Problem]]:
         lines.append(PreparedLine(i, ln["name"] or f"line {i + 1}", ln["role"], parts, freeze(ln)))
     if problems:
         return None, problems, warnings
-    return PreparedJob(freeze(norm), tuple(lines), tuple(warnings)), [], warnings
+    return PreparedJob(freeze(norm), tuple(lines), tuple(warnings), freeze(job)), [], warnings

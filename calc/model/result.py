@@ -13,7 +13,10 @@ Kinds:
 * ``text``: words that are never converted: the user's own names, table names, codes;
 * ``sentence``: the engine's own words with figures in engine units (converted at the edges);
 * ``verdict``: 'ok', 'caution' or 'fail';
-* ``path``: a field path in the validator's syntax (``lines[0].parts[1].bore_mm``);
+* ``path``: a field path in the validator's syntax (``lines[0].parts[1].bore_mm``), indexing the user's
+  own lists from 0;
+* ``value``: a value for the job field at a path, in that field's unit of the job model (a number, text,
+  or a list of parts): never converted here, the edges convert it by the job model;
 * ``list``: a list, its items declared at ``key[]``;
 * ``map``: an object, its keys declared below it.
 """
@@ -24,7 +27,7 @@ from dataclasses import dataclass
 __all__ = ["KINDS", "VERDICTS", "Out", "RESULT", "describe_result", "result_fields", "field_at", "check",
            "worst_verdict"]
 
-KINDS = ("number", "count", "flag", "text", "sentence", "verdict", "path", "list", "map")
+KINDS = ("number", "count", "flag", "text", "sentence", "verdict", "path", "value", "list", "map")
 VERDICTS = ("ok", "caution", "fail")
 
 
@@ -93,10 +96,17 @@ def worst_verdict(checks) -> str:
     return max((c["verdict"] for c in checks), key=order.__getitem__, default="ok")
 
 
+EDIT = (Out("path", "path", "Field", help="The job field to set, in the user's own lists from 0."),
+        Out("value", "value", "Value", help="The value to set it to, in the field's unit of the job model."))
 CHECK = (text("check", "Check", "What is checked (velocity, pressure, burst, ...)."),
          Out("verdict", "verdict", "Verdict", help="ok, caution or fail."),
-         sentence("message", "Finding", "What was found and, where something does not pass, what to change."))
+         sentence("message", "Finding", "What was found and, where something does not pass, what to change."),
+         rec("fix", "Fix", EDIT + (text("label", "Field", "The field in words, counting from 1: 'Length of part 2'."),),
+             "The edit that carries out the advice, where one field of the job does; null otherwise. Applying "
+             "every fix of a result once gives a job whose result has no fix on the same fields.", nullable=True))
 CHECKS = lst("checks", "Checks", rec("", "Check", CHECK))
+#: Checks that never carry a fix (the fluid temperature's: the advice there is a cooler or a duty cycle).
+PLAIN_CHECKS = lst("checks", "Checks", rec("", "Check", CHECK[:3]))
 
 # -- per operating point ---------------------------------------------------------------------
 PART_FLOW = (
@@ -211,16 +221,21 @@ PORT_PLAN = (
 LINE_PART = (
     cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
     cnt("job_part", "Part", "Position in the user's own parts list, from 0; null for a planned adapter.", True),
-    text("adapter", "Adapter", "For an adapter the port plan added: its port and name.", True),
+    text("adapter", "Adapter", "For an adapter the port plan added: the end it sits at and its name.", True),
+    sentence("label", "Part", "The part in words, as every message names it: 'part 2 (hose SAE 100R2AT -6)', "
+                              "counting from 1 in the user's list, or 'the adapter at the pump end (...)'."),
     text("kind", "Kind", "hose, tube, fitting, device, entrance or exit."),
     num("size_mm", "length_mm", "Size", "The part's size: a tube's outside diameter, otherwise its bore; null "
                                        "for a device.", True),
-    cnt("dash", "Dash size", "Nearest dash size of that size, in sixteenths of an inch; null for a device.", True),
-    flag("dash_exact", "On a dash size", "Whether the size is within 0.15/16 in of that dash size."),
+    cnt("dash", "Dash size", "In sixteenths of an inch: a hose's own, or a fitting's in a family sized so; "
+                             "otherwise the nearest to the part's size. Null for a device.", True),
+    flag("dash_exact", "On a dash size", "The part's own dash size, or a size within 0.15/16 in of that dash "
+                                         "size."),
 )
 PART_RATING = (
     cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
     text("kind", "Kind"),
+    sentence("label", "Part", "The part in words, as the messages name it."),
     sentence("description", "Part", "The part in words (class and size, or bore)."),
     num("working_bar", "pressure_bar", "Working pressure", "Null when no rating is known.", True),
     num("burst_bar", "pressure_bar", "Burst pressure", nullable=True),
@@ -254,30 +269,64 @@ RATING = (
     sentence("required_basis", "Basis of the pressure to hold"),
     num("margin", "ratio", "Working margin (working / must hold)", "Null near atmospheric or when unrated.", True),
     num("burst_margin", "ratio", "Burst margin (burst / must hold)", nullable=True),
+    num("proof_test_bar", "pressure_bar", "Proof-test pressure", "2 x the assembly's working pressure (common "
+                                                                 "practice); null when unrated.", True),
     rec("weakest_part", "Weakest part", (
         cnt("index", "Place in the line"), text("kind", "Kind"), sentence("description", "Part"),
-        num("working_bar", "pressure_bar", "Working pressure")), nullable=True),
+        sentence("label", "Part in words"), num("working_bar", "pressure_bar", "Working pressure")), nullable=True),
     lst("unrated_parts", "Parts with no rating", cnt("", "Place in the line")),
     num("temp_max_c", "temp_c", "Highest fluid temperature"),
     num("temp_min_c", "temp_c", "Lowest fluid temperature"),
     num("pressure_min_bar", "pressure_bar", "Lowest pressure in the line", "Gauge."),
-    num("dp_budget_bar", "pressure_bar", "Pressure-drop budget", nullable=True),
+    num("dp_budget_bar", "pressure_bar", "Pressure-drop budget, warm", "The line's own, or its role's default "
+                                                                       "(common practice); null for none.", True),
+    num("dp_budget_cold_bar", "pressure_bar", "Pressure-drop budget at cold start", nullable=True),
     lst("parts", "Part ratings", rec("", "Part rating", PART_RATING)),
+)
+ASSEMBLY = (
+    cnt("hose_part", "Assembly hose", "Its position in the user's parts list, from 0; null when the line has no "
+                                      "single hose assembly.", True),
+    text("length_source", "Cut length from", "route (the measured points plus slack), overall (the overall length), "
+                                             "typed (the hose's own length) or none."),
+    num("hose_cut_mm", "length_mm", "Cut length of the hose", nullable=True),
+    num("typed_mm", "length_mm", "Length typed on the hose", nullable=True),
+    num("cutoff_mm", "length_mm", "Cut-off allowances", "What the end fittings add beyond the cut hose."),
+    num("overall_mm", "length_mm", "Assembly end to end", nullable=True),
+    num("slack_mm", "length_mm", "Slack over the route", "Null without route points.", True),
+    num("slack_needed_mm", "length_mm", "Slack needed", "Shrink under pressure plus engine movement.", True),
+    num("overall_needed_mm", "length_mm", "Shortest overall length", "With route points: what holds the slack.",
+        True),
+    lst("bends", "Bends of the hose", rec("", "Bend", (num("angle_deg", "angle_deg", "Angle"),
+                                                        num("radius_mm", "length_mm", "Centre-line radius")))),
+    flag("bends_from_route", "Bends from the route", "The route points give the hose's bends (the ones the "
+                                                      "hydraulics and the bend check use)."),
+    flag("typed_bends_ignored", "Typed bends not used", "Bends typed on the hose while route points give them."),
     rec("route", "Route", ROUTE, "From the measured route points; null without them.", nullable=True),
 )
 CANDIDATE = (
     text("class", "Hose class"),
     cnt("dash", "Dash size"),
     num("bore_mm", "length_mm", "Bore"),
-    Out("verdict", "verdict", "Verdict"),
-    lst("failed", "Failed checks", text("", "Check")),
-    lst("reasons", "Why", sentence("", "Reason")),
+    text("label", "Candidate", "The class and size, and the line, counting from 1."),
+    Out("verdict", "verdict", "Verdict", help="The verdict the line gets once the candidate's edits are applied."),
+    lst("failed", "Failed checks", text("", "Check"), "The checks the line fails once it is applied."),
+    cnt("cautions", "Cautions", "How many of its checks are cautions."),
+    lst("cautioned", "Checks with a caution", text("", "Check"), "Their names, once each."),
+    lst("reasons", "Why", sentence("", "Reason"), "The failed checks' findings, or else the cautions'."),
     num("velocity_max_m_s", "speed_m_s", "Highest velocity in the hose"),
-    num("pressure_drop_bar", "pressure_bar", "Largest drop"),
-    num("working_bar", "pressure_bar", "Working pressure"),
+    num("pressure_drop_bar", "pressure_bar", "Largest drop", "The line's largest drop with this hose, over the "
+                                                             "operating points."),
+    text("pressure_drop_at", "Largest drop at", "The operating point of that drop."),
+    num("working_bar", "pressure_bar", "Assembly working pressure", "The weakest rated part's, as built.", True),
+    num("hose_working_bar", "pressure_bar", "Hose working pressure"),
     num("min_bend_radius_mm", "length_mm", "Minimum bend radius"),
     cnt("light_rank", "Construction rank", "1 = lightest construction (textile braid) to 4 (two wire braids)."),
     text("source", "Source"),
+    flag("current", "The line's own", "The line's hoses are already of this class and size."),
+    sentence("note", "Note", "Larger than needed, where a smaller size of the class passes too.", True),
+    lst("apply", "Edits", rec("", "Edit", EDIT), "Set each field in order to build the line with this hose: its "
+                                                  "parts list (the hose, its end fittings re-sized) and any port "
+                                                  "line-end size. Empty for the line's own."),
 )
 LINE = (
     cnt("index", "Line", "Position in the user's list of lines, from 0."),
@@ -293,9 +342,11 @@ LINE = (
                            rec("to_port", "End port", PORT_PLAN, "Null when the end port names no line end.",
                                nullable=True))),
     lst("parts", "Parts as built", rec("", "Part", LINE_PART)),
+    rec("assembly", "Hose assembly", ASSEMBLY, "The cut length, slack and bends, worked out once."),
     rec("rating", "Rating", RATING),
     lst("candidates", "Hose candidates", rec("", "Candidate", CANDIDATE),
-        "Every tabulated hose class and size recomputed for the line, passing ones first."),
+        "Each tabulated hose class around its smallest size that passes, built and checked as a whole "
+        "assembly; passing ones first."),
 )
 
 # -- thermal ---------------------------------------------------------------------------------
@@ -346,7 +397,7 @@ THERMAL = (
         num("fins_per_inch", "count", "Fins per inch"),
         num("fin_od_mm", "length_mm", "Fin outside diameter", nullable=True))),
     sentence("cooler_message", "Cooler advice"),
-    CHECKS,
+    PLAIN_CHECKS,
     Out("verdict", "verdict", "Verdict"),
     sentence("message", "Finding"),
 )
@@ -374,7 +425,9 @@ RESULT = rec("", "Result", (
         Out("verdict", "verdict", "Verdict", help="The worst verdict of the circuit's checks."), CHECKS)),
     lst("lines", "Lines", rec("", "Line", LINE)),
     rec("thermal", "Fluid temperature", THERMAL),
-    lst("warnings", "Warnings", rec("", "Warning", (Out("path", "path", "Field"), sentence("message", "Warning")))),
+    lst("warnings", "Warnings", rec("", "Warning", (Out("path", "path", "Field"),
+                                                     text("label", "Field in words", "'Bore of part 2 of line 1'."),
+                                                     sentence("message", "Warning")))),
     lst("methods", "Methods", sentence("", "Method")),
     rec("pump_curve", "Pump delivery", PUMP_CURVE, "For the plot of delivered flow against engine speed."),
 ))

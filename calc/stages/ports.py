@@ -3,58 +3,36 @@
 For a port that names the line end to meet it (``calc.model.job.PORT``), the plan of
 ``calc.system.adapters.plan_for_port`` is made; its adapters become fitting parts at the start
 (``from_port``) or end (``to_port``) of the line as built, so they count in the hydraulics (as
-restrictions) and in the weakest-part check. A plan that does not seal is a failed ``ports``
-check with the reason, not an input error: the rest of the job still evaluates.
+restrictions) and in the weakest-part check. They are named by the end they sit at ("the adapter at
+the pump end"), never numbered, so the user's part numbers do not shift. A plan that does not seal
+is judged by the line's checks (``calc.checks.assembly.port_checks``); the job still evaluates.
 """
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-from ..model.job import PART
-from ..model.prepared import Part
-from ..model.result import check
-from ..model.schema import validate
-from ..system.adapters import adapter_parts, plan_for_port
+from ..system.adapters import LINE_ENDS, line_with_adapters
+from ..system.naming import end_words
 
-__all__ = ["PortsSection", "ports_stage"]
-
-_ENDS = (("from_port", "start"), ("to_port", "end"))
+__all__ = ["PortsSection", "ports_stage", "ends_in_words"]
 
 
 @dataclass(frozen=True)
 class PortsSection:
-    """Per line: ``plans`` ``{"from_port": plan or None, "to_port": plan or None}``, ``built_parts``
-    (the parts in flow order with the planned adapters) and ``checks``."""
+    """Per line: ``plans`` ``{"from_port": plan or None, "to_port": plan or None}``, ``built_parts`` (the
+    user's parts in flow order with the planned adapters) and ``where`` (each end in words)."""
 
     plans: tuple
     built_parts: tuple
-    checks: tuple
+    where: tuple
 
 
-def _adapters(plan: dict, label: str) -> list:
+def ends_in_words(job) -> list[dict]:
+    """Per line: ``{"from_port": words, "to_port": words}``, the ends as the adapters there are named."""
     out = []
-    for a, raw in zip(plan["adapters"], adapter_parts(plan)):
-        norm, problems, _ = validate(PART, raw)
-        if problems:  # pragma: no cover - adapter_parts emits valid parts (tested in test_threads)
-            continue
-        out.append(Part(norm, None, adapter=f"{label}: {a['name']}"))
-    return out
-
-
-def _checks(spec, plans: dict) -> list:
-    out = []
-    for end, word in _ENDS:
-        plan = plans[end]
-        if plan is None:
-            continue
-        label = spec[end].get("label") or f"{word} port"
-        if not plan["ok"]:
-            out.append(check("ports", "fail", f"{label}: {plan['message']}"))
-        elif plan["adapters"]:
-            out.append(check("ports", "ok", f"{label}: {plan['message']}".strip()))
-        else:
-            out.append(check("ports", "ok", f"{label}: the line end fits the port directly. "
-                                            f"{plan['message']}".strip()))
+    for ln in job.lines:
+        same = [m for m in job.lines if m.role == ln.role]
+        out.append({end: end_words(ln.role, end, same[0] is ln, same[-1] is ln) for end in LINE_ENDS})
     return out
 
 
@@ -69,18 +47,10 @@ def ports_stage(job) -> PortsSection:
     -------
     PortsSection
     """
-    plans, built, checks = [], [], []
-    for ln in job.lines:
-        parts = list(ln.parts)
-        pl = {}
-        for end, word in _ENDS:
-            plan = plan_for_port(ln.spec[end])
-            pl[end] = plan
-            if not plan or not plan["ok"]:
-                continue
-            added = _adapters(plan, ln.spec[end].get("label") or f"{word} port")
-            parts = added + parts if end == "from_port" else parts + added
-        plans.append(pl)
-        built.append(tuple(parts))
-        checks.append(_checks(ln.spec, pl))
-    return PortsSection(tuple(plans), tuple(built), tuple(checks))
+    where = ends_in_words(job)
+    plans, built = [], []
+    for ln, w in zip(job.lines, where):
+        plan, parts = line_with_adapters(ln.spec, ln.parts, w)
+        plans.append(plan)
+        built.append(parts)
+    return PortsSection(tuple(plans), tuple(built), tuple(where))

@@ -8,8 +8,10 @@ point re-solved at the trial temperature so viscosity follows temperature.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 
+from ..checks.case import said
 from ..data.practice import CURVE_OVER_LIMIT_K
 from ..model.result import check, worst_verdict
 from ..physics.lumped import STEADY_MAX_C, STEADY_TOL_K, adiabatic_warmup, seconds_to_reach, solve_steady, warmup
@@ -25,8 +27,9 @@ METHOD = [
     "against (outlet plus the flow-control metering drop; the relief setting at full lock) less its inlet "
     "pressure, split into the internal leakage (1 - volumetric efficiency), the flow the flow control "
     "recirculates or the relief passes, and the flow through the circuit (metering orifice, lines, gear and "
-    "feed line). With pump.overall_efficiency given, the mechanical losses on top, hydraulic input x "
-    "(1/eta_m - 1) with eta_m = overall / volumetric efficiency, are added in full; the leakage is not counted "
+    "feed line). With the pump's overall efficiency given, the mechanical losses on top, hydraulic input x "
+    "(1/eta - 1) with the mechanical efficiency eta = overall / volumetric efficiency, are added in full; the "
+    "leakage is not counted "
     "twice.",
     "Line rejection: inside film (Nu = 3.66 laminar, Gnielinski turbulent, linear in Re between 2000 and "
     "4000), wall conduction ln(do/di)/(2 pi k) and outside film in series; outside, natural convection by "
@@ -45,10 +48,11 @@ METHOD = [
     f"Steady temperature: duty-weighted heat generated = duty-weighted heat rejected at one bulk "
     f"temperature, every operating point re-solved at the trial temperature; bracketed regula falsi "
     f"(Illinois) between the air temperature and {STEADY_MAX_C:g} C, to a bracket under {STEADY_TOL_K} K.",
-    "Full-lock hold: at full lock no fluid moves outside the pump, so the fluid in the pump (thermal."
-    "pump_volume_l) and the part of its body that warms with it (thermal.pump_heat_capacity_j_k) take the "
-    "whole heat as one lump, with no heat leaving it (conservative): T = T0 + P t / C, the time that matters. "
-    "Secondary: the whole fluid volume (lines + other_volume_l) as one well-mixed lump, rho cp V, stepped by the "
+    "Full-lock hold: at full lock no fluid moves outside the pump, so the fluid in the pump (the setting 'Fluid "
+    "in the pump') and the part of its body that warms with it ('Pump body heat capacity') take the whole heat "
+    "as one lump, with no heat leaving it (conservative): T = T0 + P t / C, the time that matters. Secondary: "
+    "the whole fluid volume (the lines plus 'Fluid in pump, gear and reservoir') as one well-mixed lump, rho cp "
+    "V, stepped by the "
     "exact solution of the locally linearised balance, with only the reservoir rejecting heat. Both start "
     "from the steady temperature (or the full-lock point's own temperature when there is none).",
     "Cooler advice: the rating (or tube length) that brings the steady temperature down to the fluid "
@@ -58,21 +62,25 @@ METHOD = [
 
 @dataclass(frozen=True)
 class ThermalSection:
-    """``heat`` (per operating point: the result's heat keys), ``thermal`` (the result's ``thermal``)
-    and per-line ``checks`` (part limits against the steady temperature)."""
+    """``heat`` (per operating point: the result's heat keys) and ``thermal`` (the result's ``thermal``)."""
 
     heat: tuple
     thermal: dict
-    checks: tuple
 
 
-def lowest_part_limit(circuit, ratings) -> tuple[float, str] | None:
-    """The lowest temperature limit of any rated part, with its description, or None."""
+def _place_words(path: str) -> str:
+    """'part 2 of line 1' for the path ``lines[0].parts[1].wall_mm``."""
+    line, part = (int(n) + 1 for n in re.findall(r"\[(\d+)\]", path)[:2])
+    return f"part {part} of line {line}"
+
+
+def lowest_part_limit(job, ratings) -> tuple[float, str] | None:
+    """The lowest temperature limit of any rated part (``ratings``: the lines' ratings), in words, or None."""
     best = None
-    for ln, rating in zip(circuit.model.lines, ratings.ratings):
+    for ln, rating in zip(job.lines, ratings):
         for p in rating["parts"]:
             if p.get("max_temp_c") is not None and (best is None or p["max_temp_c"] < best[0]):
-                best = (p["max_temp_c"], f"{ln.name} part {p['index']} ({p['description']})")
+                best = (p["max_temp_c"], f"{p['label']} of line {ln.index + 1}")
     return best
 
 
@@ -90,10 +98,10 @@ def _weighted(model: ThermalModel, duty: list, t_c: float, with_cooler: bool = T
 def _full_lock_condition(conds) -> tuple[dict, str]:
     for c in conds:
         if c["full_lock"]:
-            return c, f"the operating point '{c['name']}'"
+            return c, f"the operating point {said(c['name'])}"
     idle = min(conds, key=lambda c: c["engine_rpm"])
     return dict(idle, full_lock=True, name=idle["name"] + " (at full lock)"), \
-        f"the slowest operating point '{idle['name']}' with the wheel at full lock (no full-lock point given)"
+        f"the slowest operating point {said(idle['name'])} with the wheel at full lock (no full-lock point given)"
 
 
 def _rating_needed(caps: list, dt: float, deficit: float) -> float:
@@ -175,8 +183,8 @@ def _steady(model: ThermalModel, duty: list, limits: dict, out: dict, checks: li
     """Solve the steady temperature into ``out`` and its check into ``checks``; returns it."""
     ta, limit, target, margin, basis = (limits[k] for k in ("air", "limit", "target", "margin", "basis"))
     if not duty:
-        out["steady"] = {"status": "no duty cycle", "message": "no duty cycle given (every duty_percent is 0): "
-                         "give each operating point its share of time to get a steady temperature"}
+        out["steady"] = {"status": "no duty cycle", "message": "no duty cycle given (every operating point's share "
+                         "of time is 0): give each its share of time to get a steady temperature"}
         checks.append(check("steady temperature", "caution", out["steady"]["message"]))
         return None
     res = solve_steady(lambda t: (lambda h, r, _: h - r)(*_weighted(model, duty, t)), ta, STEADY_MAX_C)
@@ -300,10 +308,9 @@ def _cooler_advice(model: ThermalModel, duty: list, target: float, steady, out: 
     for ln in model.circuit.lines:
         for k, p in enumerate(ln.parts):
             if p["kind"] == "device" and p.get("is_cooler") and c["type"] == "none":
-                place = k if p.place is None else p.place
-                checks.append(check("cooler", "caution", f"lines[{ln.index}].parts[{place}] is marked as a cooler "
-                                                         "but thermal.cooler gives no rating or tube: its heat "
-                                                         "rejection is not counted"))
+                checks.append(check("cooler", "caution", f"part {p.place + 1} of line {ln.index + 1} is marked as a "
+                                                         "cooler, but the cooler settings give no rating or tube: "
+                                                         "its heat rejection is not counted"))
 
 
 def _limits(job, model: ThermalModel, part_limit) -> dict:
@@ -316,21 +323,17 @@ def _limits(job, model: ThermalModel, part_limit) -> dict:
     return {"limit": limit, "basis": basis, "margin": margin, "target": limit - margin, "air": model.t_air_c}
 
 
-def _steady_part_checks(ratings, conditions, steady) -> list[list]:
+def _steady_part_check(job, ratings, conditions, steady) -> list:
     """Each rated part's limit against the steady temperature, where the fluid settles hotter than every
-    operating point's own temperature (the ratings stage judged those)."""
-    out = []
-    for rating in ratings.ratings:
-        checks = []
-        if steady is not None and conditions and steady > max(c["fluid_temp_c"] for c in conditions):
-            over = [p for p in rating["parts"] if p.get("max_temp_c") is not None and p["max_temp_c"] < steady]
-            if over:
-                names = ", ".join(f"part {p['index']} ({p['description']}, {p['max_temp_c']:g} C)" for p in over)
-                checks.append(check("temperature (steady)", "fail",
-                                    f"add or enlarge a cooler, or use parts rated hotter: the fluid settles "
-                                    f"at {steady:.0f} C for this duty cycle, above the limit of {names}"))
-        out.append(checks)
-    return out
+    operating point's own temperature (the lines' checks judged those)."""
+    if steady is None or not conditions or steady <= max(c["fluid_temp_c"] for c in conditions):
+        return []
+    over = [f"{p['label']} of line {ln.index + 1} ({p['max_temp_c']:g} C)" for ln, rating in zip(job.lines, ratings)
+            for p in rating["parts"] if p.get("max_temp_c") is not None and p["max_temp_c"] < steady]
+    if not over:
+        return []
+    return [check("part limits", "fail", f"add or enlarge a cooler, or use parts rated hotter: the fluid settles at "
+                                         f"{steady:.0f} C for this duty cycle, above the limit of " + ", ".join(over))]
 
 
 def thermal_stage(job, circuit, ratings) -> ThermalSection:
@@ -342,8 +345,8 @@ def thermal_stage(job, circuit, ratings) -> ThermalSection:
     ----------
     job : calc.model.prepared.PreparedJob
     circuit : calc.stages.circuit.CircuitSection
-    ratings : calc.stages.ratings.RatingsSection
-        For the lowest part temperature limit.
+    ratings : sequence of dict
+        Each line's rating (``calc.stages.lines.LinesSection.ratings``): its parts' temperature limits.
 
     Returns
     -------
@@ -351,23 +354,25 @@ def thermal_stage(job, circuit, ratings) -> ThermalSection:
     """
     model = ThermalModel(circuit.model)
     job_conds = job.conditions
-    lim = _limits(job, model, lowest_part_limit(circuit, ratings))
+    lim = _limits(job, model, lowest_part_limit(job, ratings))
     heat = _condition_heat(model, job_conds, circuit.conditions)
     checks = []
     out = {"limit_c": lim["limit"], "limit_basis": lim["basis"], "target_c": lim["target"],
            "margin_c": lim["margin"], "air_temp_c": lim["air"], "method": list(METHOD),
            "hose_wall_defaulted": list(model.notes)}
     if model.notes:
-        out["method"].append("Hose walls not given (" + ", ".join(model.notes) + ") use a typical wall for the "
-                             "bore (from memory, braided hydraulic hose); give wall_mm from the datasheet.")
+        out["method"].append("Hose walls not given (" + ", ".join(_place_words(p) for p in model.notes) + ") use a "
+                             "typical wall for the bore (from memory, braided hydraulic hose); give the hose wall "
+                             "thickness from the datasheet.")
     duty = [(c, c["duty_percent"] / 100.0) for c in job_conds if c["duty_percent"] > 0.0]
     steady = _steady(model, duty, lim, out, checks)
     out["steady_temp_c"] = steady
     _full_lock(model, job_conds, steady, lim["limit"], out, checks)
     _cooler_advice(model, duty, lim["target"], steady, out, checks)
+    checks.extend(_steady_part_check(job, ratings, circuit.conditions, steady))
     out["checks"] = checks
     verdict = worst_verdict(checks)
     out["verdict"] = verdict
     out["message"] = checks[0]["message"] if verdict == "ok" else next(c for c in checks if c["verdict"] == verdict)[
         "message"]
-    return ThermalSection(tuple(heat), out, tuple(_steady_part_checks(ratings, circuit.conditions, steady)))
+    return ThermalSection(tuple(heat), out)

@@ -23,11 +23,13 @@ swivel nuts; all others are male (stud, tube nut, banjo bolt, pipe thread);
 """
 from __future__ import annotations
 
-from ..data.tables import end_families, ends, find_thread, port_words, seal_words
-from ..model.job import FITTING_FAMILIES, SEAL_TYPES
+from ..data.tables import end_families, ends, find_thread, fitting_families, port_words, seal_words, size_row
+from ..model.job import FITTING_FAMILIES, PART, SEAL_TYPES
+from ..model.prepared import Part
+from ..model.schema import validate
 
 __all__ = ["BadPlan", "END_FAMILIES", "SEAL_WORDS", "PORT_WORDS", "plan_adapters", "plan_for_port",
-           "adapter_parts"]
+           "adapter_parts", "adapter_line_parts", "mating_problem", "LINE_ENDS", "port_adapters", "line_with_adapters"]
 
 #: End families known to the planner: ``{family: {label, standard, gender}}`` (calc/data/threads.json).
 END_FAMILIES = end_families()
@@ -366,3 +368,80 @@ def adapter_parts(plan: dict) -> list[dict]:
                 p["dash"] = a["dash"]
         parts.append(p)
     return parts
+
+
+def adapter_line_parts(plan: dict, label: str) -> list:
+    """The adapters of an accepted plan as prepared line parts, named for the port ``label``.
+
+    Each is a validated fitting part (``calc.model.job.PART``) with no place in the user's list.
+    """
+    out = []
+    for a, raw in zip(plan["adapters"], adapter_parts(plan)):
+        norm, problems, _ = validate(PART, raw)
+        if problems:  # pragma: no cover - adapter_parts emits valid parts (tested in tests/system)
+            continue
+        out.append(Part(norm, None, adapter=f"{label}: {a['name']}"))
+    return out
+
+
+def _family_seal(family: str, dash) -> str | None:
+    fam = fitting_families().get(family)
+    if fam is None:
+        return None
+    row = size_row(fam["sizes"], dash) if dash is not None else None
+    seals = {r["seal"] for r in ([row] if row else fam["sizes"]) if r.get("seal")}
+    return _seal_class(seals.pop()) if len(seals) == 1 else None
+
+
+def mating_problem(family_a: str, dash_a, family_b: str, dash_b) -> str | None:
+    """Why two fittings of these families, joined end to end, would not seal; None when nothing is known
+    against them. Hand-written rule: sealing faces of different kinds never seal (the same pairs the
+    adapter planner refuses).
+
+    Examples
+    --------
+    >>> mating_problem("jic-37", 6, "flare-45-sae", 6).startswith("a 45 deg flare on a 37 deg seat")
+    True
+    >>> mating_problem("jic-37", 6, "jic-37", 6) is None
+    True
+    """
+    a, b = _family_seal(family_a, dash_a), _family_seal(family_b, dash_b)
+    if a is None or b is None or a == b:
+        return None
+    return _REASONS.get(frozenset((a, b)))
+
+
+
+#: The two ends of a line, in its flow order.
+LINE_ENDS = ("from_port", "to_port")
+
+
+def port_adapters(spec, where: dict) -> tuple[dict, tuple, tuple]:
+    """Plan the adapters at both ports of a line.
+
+    Parameters
+    ----------
+    spec : mapping
+        The line (``calc.model.job.LINE``): its ``from_port`` and ``to_port``.
+    where : dict
+        ``{"from_port": words, "to_port": words}``: each end in words ("pump end"), naming its adapters.
+
+    Returns
+    -------
+    plans, start, end
+        ``{"from_port": plan or None, "to_port": plan or None}`` (``plan_for_port``), and the adapters of
+        each accepted plan as prepared parts, for the start and for the end of the line.
+    """
+    plans, added = {}, {}
+    for end in LINE_ENDS:
+        plan = plan_for_port(spec[end])
+        plans[end] = plan
+        added[end] = tuple(adapter_line_parts(plan, where[end])) if plan and plan["ok"] else ()
+    return plans, added["from_port"], added["to_port"]
+
+
+def line_with_adapters(spec, parts, where: dict) -> tuple[dict, tuple]:
+    """The port plans of a line (``port_adapters``) and its parts in flow order with their adapters: the
+    start port's before the user's ``parts``, the end port's after them."""
+    plans, start, end = port_adapters(spec, where)
+    return plans, start + tuple(parts) + end

@@ -18,7 +18,7 @@ from ..physics.friction import RE_LAMINAR, friction_factor, regime
 from ..physics.losses import (bend_loss_coefficients, contraction_k, device_drop_pa, entrance_coefficients,
                               exit_k, expansion_k, fitting_body_coefficients, laminar_bend_k)
 
-__all__ = ["Segment", "part_bore_mm", "compile_line", "line_flow"]
+__all__ = ["Segment", "part_bore_mm", "compile_line", "compile_line_memo", "line_flow", "signature"]
 
 #: Relative roughness of a fitting's drilled passage: 1.5 um, drawn steel (from memory).
 FITTING_ROUGHNESS_M = 1.5e-6
@@ -113,6 +113,47 @@ def compile_line(parts) -> list[Segment]:
     ['entrance', 'exit']
     """
     return [_segment(i, p) for i, p in enumerate(parts)]
+
+
+def _segment_key(i: int, p):
+    """What a part's segment depends on (its place and its hydraulic fields), hashable."""
+    return (i,) + tuple((k, tuple(tuple(sorted(b.items())) for b in v) if k == "bends" else v)
+                        for k, v in sorted(p.items()) if k in _HYDRAULIC_FIELDS)
+
+
+#: The fields a part's segment reads (``_segment``).
+_HYDRAULIC_FIELDS = frozenset(("kind", "bore_mm", "od_mm", "wall_mm", "length_m", "roughness_mm", "bends", "rise_m",
+                               "passage_length_mm", "shape", "dp_bar", "at_flow_lpm", "at_visc_cst", "scaling", "edge"))
+
+
+def compile_line_memo(parts, memo: dict) -> list[Segment]:
+    """``compile_line`` with each segment kept in ``memo`` by its part's place and hydraulic fields: the hose
+    candidates of one line share their unchanged parts' segments (a segment is never changed once made)."""
+    out = []
+    for i, p in enumerate(parts):
+        key = _segment_key(i, p)
+        seg = memo.get(key)
+        if seg is None:
+            seg = memo[key] = _segment(i, p)
+        out.append(seg)
+    return out
+
+
+_SIGNATURE = ("kind", "d_m", "length_m", "eps_m", "bends", "rise_m", "shape", "dp0_pa", "q0_m3_s", "nu0_m2_s",
+              "scaling", "edge", "wall_m")
+
+
+def signature(segs) -> tuple:
+    """What the hydraulics of a compiled line depends on, hashable: two lines with equal signatures have
+    equal drops at every flow and fluid state (the hose selection shares their solutions).
+
+    Examples
+    --------
+    >>> a = compile_line([{"kind": "exit", "bore_mm": 10.0}])
+    >>> signature(a) == signature(compile_line([{"kind": "exit", "bore_mm": 10.0}]))
+    True
+    """
+    return tuple(tuple(getattr(s, k) for k in _SIGNATURE) for s in segs)
 
 
 def _bends_k(s: Segment, re: float, fd: float) -> float:

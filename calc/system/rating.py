@@ -23,11 +23,13 @@ References
 """
 from __future__ import annotations
 
-from ..data.practice import TABLE_ROUNDING
+import math
+
+from ..data.practice import LOW_PRESSURE_BAR, PROOF_TEST_FACTOR, TABLE_ROUNDING
 from ..data.tables import family_rating, fitting_families, seals, size_row, tube_materials
 from ..physics.strength import barlow_burst_mpa, derate_factor, lame_burst_mpa
 
-__all__ = ["BAR_PER_MPA", "PRESSURE_PARTS", "tube_rating", "hose_description", "part_ratings"]
+__all__ = ["BAR_PER_MPA", "PRESSURE_PARTS", "tube_rating", "hose_description", "part_ratings", "line_rating"]
 
 BAR_PER_MPA = 10.0
 #: Kinds of part that hold pressure (a reservoir entrance or exit carries none).
@@ -155,7 +157,7 @@ def _fitting(p, parts, r: dict) -> None:
         r["notes"].append("metal-to-metal seat: no seal temperature limit of its own")
 
 
-def part_ratings(parts, rset, t_max_c: float, t_min_c: float) -> list[dict]:
+def part_ratings(parts, rset, t_max_c: float, t_min_c: float, memo: dict | None = None) -> list[dict]:
     """Rating of every pressure-bearing part of a line at the line's temperatures.
 
     Parameters
@@ -167,6 +169,10 @@ def part_ratings(parts, rset, t_max_c: float, t_min_c: float) -> list[dict]:
     t_max_c, t_min_c : float
         Highest and lowest fluid temperature over the operating points, [C];
         ratings are derated at ``t_max_c`` where the data gives a derating.
+    memo : dict, optional
+        Kept between calls with the same settings and temperatures (the hose candidates of one line): a
+        part seen before, at the same place and beside hoses of the same ratings, is not rated again. It
+        holds the part itself beside its rating, so the part's identity stays its own.
 
     Returns
     -------
@@ -188,10 +194,16 @@ def part_ratings(parts, rset, t_max_c: float, t_min_c: float) -> list[dict]:
     (310.3, True)
     """
     hdf, tdf = rset["hose_design_factor"], rset["tube_design_factor"]
+    hoses = tuple(q.get("working_bar") for q in parts if q["kind"] == "hose")
     out = []
     for i, p in enumerate(parts):
         k = p["kind"]
         if k not in PRESSURE_PARTS:
+            continue
+        key = (id(p), i, hoses if k == "fitting" else None)
+        hit = memo.get(key) if memo is not None else None
+        if hit is not None:
+            out.append(dict(hit[1], notes=list(hit[1]["notes"])))
             continue
         r = {"index": i, "kind": k, "description": "", "working_bar": None, "burst_bar": None,
              "design_factor": hdf, "max_temp_c": None, "min_temp_c": None, "min_bend_radius_mm": None,
@@ -205,5 +217,99 @@ def part_ratings(parts, rset, t_max_c: float, t_min_c: float) -> list[dict]:
         else:  # device
             r.update(description="cooler" if p.get("is_cooler") else "series device",
                      working_bar=p.get("working_bar"), source="user" if p.get("working_bar") else None)
+        if memo is not None:
+            memo[key] = (p, dict(r, notes=list(r["notes"])))
         out.append(r)
     return out
+
+
+def _line_pressures(results, names) -> tuple[float, str, float]:
+    """Highest and lowest pressure anywhere in a line over the operating points, bar gauge."""
+    hi, hi_at, lo = -math.inf, "", math.inf
+    for ln, name in zip(results, names):
+        ps = [n["pressure_bar"] for n in ln["nodes"]] if "nodes" in ln else [ln["inlet_bar"], ln["outlet_bar"]]
+        if max(ps) > hi:
+            hi, hi_at = max(ps), name
+        lo = min(lo, min(ps))
+    return hi, hi_at, lo
+
+
+def _summary(r) -> dict | None:
+    if r is None:
+        return None
+    return {"index": r["index"], "kind": r["kind"], "description": r["description"], "label": r["label"],
+            "working_bar": r["working_bar"]}
+
+
+def line_rating(parts, role: str, rset, relief_bar: float, results, names, temps: tuple, budgets: tuple,
+                label_of, memo: dict | None = None) -> tuple[dict, list]:
+    """The rating of a line as built: the pressure it must hold, its weakest part and its margins.
+
+    Parameters
+    ----------
+    parts : sequence of Part
+        The line's parts as built, in flow order.
+    role : str
+        'pressure', 'return' or 'feed'.
+    rset : mapping
+        The job's rating settings.
+    relief_bar : float
+        The pump's relief setting, [bar].
+    results, names : sequences
+        The line's result (``calc.system.circuit``) and the operating point's name, per operating point.
+    temps : (t_max, t_min)
+        Highest and lowest fluid temperature over the operating points, [C].
+    budgets : (warm, cold)
+        The line's pressure-drop budgets, [bar] (None where none applies).
+    label_of : callable
+        ``label_of(part)`` -> the part in words, for the result.
+    memo : dict, optional
+        As ``part_ratings``'s (the hose candidates of one line share it).
+
+    Returns
+    -------
+    rating, part_ratings : dict, list
+
+    Notes
+    -----
+    The pressure a line must hold: a pressure line, the relief setting plus the surge allowance
+    (``ratings.surge_percent``, common practice); a return or feed line, the highest computed pressure
+    anywhere in it over the operating points, cold start included. The proof-test pressure is
+    ``PROOF_TEST_FACTOR`` x the assembly's working pressure (common practice, no source).
+    """
+    hi, hi_at, lo = _line_pressures(results, names)
+    if role == "pressure":
+        required = relief_bar * (1.0 + rset["surge_percent"] / 100.0)
+        basis = f"relief {relief_bar:g} bar + {rset['surge_percent']:g} % surge allowance (common practice)"
+    else:
+        required = max(hi, 0.0)
+        basis = f"the highest pressure computed in the line, at ‘{hi_at}’"
+    prs = part_ratings(parts, rset, temps[0], temps[1], memo)
+    for r in prs:
+        p = parts[r["index"]]
+        hit = memo.get(("label", id(p))) if memo is not None else None
+        if hit is None:
+            hit = (p, label_of(p))
+            if memo is not None:
+                memo[("label", id(p))] = hit
+        r["label"] = hit[1]
+    rated = [r for r in prs if r["working_bar"] is not None]
+    weakest = min(rated, key=lambda r: r["working_bar"]) if rated else None
+    bursts = [r["burst_bar"] for r in prs if r["burst_bar"] is not None]
+    working = weakest["working_bar"] if weakest else None
+    burst = min(bursts) if bursts else None
+    low = required < LOW_PRESSURE_BAR  # near atmospheric: a margin would mean nothing
+    rating = {
+        "working_bar": working, "burst_bar": burst,
+        "design_factor": weakest["design_factor"] if weakest else rset["hose_design_factor"],
+        "required_bar": required, "required_basis": basis,
+        "margin": working / required if (working is not None and not low) else None,
+        "burst_margin": burst / required if (burst is not None and not low) else None,
+        "proof_test_bar": PROOF_TEST_FACTOR * working if working is not None else None,
+        "weakest_part": _summary(weakest),
+        "unrated_parts": [r["index"] for r in prs if r["working_bar"] is None],
+        "temp_max_c": temps[0], "temp_min_c": temps[1], "pressure_min_bar": lo,
+        "dp_budget_bar": budgets[0], "dp_budget_cold_bar": budgets[1],
+        "parts": prs,
+    }
+    return rating, prs

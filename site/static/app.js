@@ -1,9 +1,9 @@
 // Linesmith page: the job form, live results from the engine worker, plots, build sheet,
 // saved jobs. The job is kept in engine units; the unit switch changes only what is shown.
 // Text from a job (names typed by a user) is always inserted with textContent.
-import { clone, el, readJSON } from "./js/util.js";
+import { clone, el, readJSON, setPath } from "./js/util.js";
 import { getSystem, setSystem, unitLabel } from "./js/units.js";
-import { assignStaticPaths, fillAll, initForm, localErrors, refreshDashes, resetPending, showErrors } from "./js/form.js";
+import { assignStaticPaths, fillAll, initForm, localErrors, refreshAssemblyNotes, refreshDashes, resetPending, showErrors } from "./js/form.js";
 import { renderPlots, renderProblems, renderResult, setCautions } from "./js/results.js";
 import { renderSheet } from "./js/sheet.js";
 import { autosave, readJobFile, restore, saveFile, UNITS_KEY } from "./js/storage.js";
@@ -164,11 +164,12 @@ function show() {
   showErrors(state.errors);
   renderProblems(state.errors, localErrors(), state.fault);
   if (state.result) {
-    renderResult(state.result, state.resultJob);
+    renderResult(state.result, { applyEdits });
     const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
     renderPlots(state.result, sweep);
     renderSheet(state.resultJob, state.result);
     refreshDashes();
+    refreshAssemblyNotes();
   }
   if (state.result || state.errors.length) resultsSection.hidden = false;
 }
@@ -183,6 +184,21 @@ function changed({ structural, recalc: needsCalc }) {
   }
   body.dataset.jobRev = String(state.rev);
   if (structural) body.dataset.structure = String(Number(body.dataset.structure || 0) + 1);
+}
+
+// Make the engine's edits (a check's fix or a candidate's apply list) on the job, in order. The
+// edits' paths index the user's own lists; their values are in engine units. One step can be undone.
+function applyEdits(edits, words) {
+  const before = clone(state.job);
+  for (const e of edits) setPath(state.job, e.path, clone(e.value));
+  loadJob(state.job);
+  const undo = el("button", { type: "button", class: "undo-edit" }, "Undo");
+  undo.addEventListener("click", () => {
+    loadJob(before);
+    showFileMessage(`Undone: ${words}.`, true);
+  });
+  showFileMessage(`Done: ${words}.`, true);
+  fileMessage.querySelector("p").append(" ", undo);
 }
 
 function loadJob(job) {

@@ -163,3 +163,22 @@ def test_implausible_fluid_slope_warns_and_real_fluids_do_not():
         assert warned(v40, v100) == [], (v40, v100)
     w = warned(10, 9.999)
     assert w and "slope" in w[0].message and "outside what real hydraulic fluids show" in w[0].message
+
+
+def test_a_field_key_has_one_unit_wherever_it_is_declared():
+    # Source: the project's key rule (keys carry their unit), on the job model's declaration itself; the
+    # edges convert an edit's value by the unit of its last key (calc.model.job.field_unit).
+    from calc.model.job import JOB
+    from calc.model.schema import Field, ListOf, Record, Variants
+    seen = {}
+
+    def walk(spec):
+        item = spec.item if isinstance(spec, ListOf) else spec
+        for rec in (item.variants.values() if isinstance(item, Variants) else [item]):
+            for f in getattr(rec, "fields", ()):
+                if isinstance(f, Field):
+                    assert seen.setdefault(f.key, f.unit) == f.unit, f.key
+                else:
+                    walk(f)
+    walk(JOB)
+    assert seen["length_m"] == "length_m" and seen["radius_mm"] == "length_mm"

@@ -26,6 +26,9 @@ def _variants():
     j["conditions"] = [{"name": "frozen", "engine_rpm": 2000, "fluid_temp_c": -35.0}]
     j["lines"][0]["parts"][0]["bends"] = [{"angle_deg": 90, "radius_mm": 5}]  # under one bore: a warning
     jobs.append(j)
+    j = simple_job(relief_bar=2.0)  # warm, and still over the relief: a failed check with a fix
+    j["conditions"] = [{"name": "warm", "engine_rpm": 2000, "fluid_temp_c": 40.0}]
+    jobs.append(j)
     j = simple_job()
     j["lines"][0]["parts"].append({"kind": "tube", "od_mm": 9.53, "wall_mm": 0.89, "length_m": 0.5,
                                    "bends": [{"angle_deg": 90, "radius_mm": 30}]})
@@ -57,6 +60,8 @@ def _walk(obj, path, seen):
             assert decl.nullable, f"{path} is null but not declared nullable"
             return
         _check_kind(obj, decl, path)
+        if decl.kind == "value":  # a job field's value (a number, text or parts): the job model declares it
+            return
     if isinstance(obj, dict):
         for k, v in obj.items():
             _walk(v, f"{path}.{k}" if path else k, seen)
@@ -77,6 +82,8 @@ def _check_kind(v, decl, path):
         assert isinstance(v, int) and not isinstance(v, bool), path
     elif kind == "flag":
         assert isinstance(v, bool), path
+    elif kind == "value":
+        assert isinstance(v, (int, float, str, list, dict)) and not isinstance(v, bool), path
     elif kind in ("text", "sentence", "path"):
         assert isinstance(v, str), path
     elif kind == "verdict":

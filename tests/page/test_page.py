@@ -226,7 +226,9 @@ def test_bore_change_updates_drop_and_verdict(page, site):
     err = calc.evaluate(bad)["errors"][0]
     assert err["path"] == "lines[0].parts[1].bore_mm"
     assert err["message"] in beside.locator(".fld-error").text_content()
-    assert err["path"] in page.text_content("#problems")
+    # the list names the field by its label, counting from 1, never by its key
+    assert f'{err["label"]}: {err["message"]}' in page.text_content("#problems")
+    assert err["label"] == "Bore of part 2 of line 1" and err["path"] not in page.text_content("#problems")
     assert page.input_value('[data-path="lines[0].parts[1].bore_mm"]') == "-1"
 
 
@@ -570,3 +572,77 @@ def test_fluid_fields_show_the_preset_values(page):
     ph = page.get_attribute('[data-path="fluid.visc_40c_cst"]', "placeholder")
     assert ph.startswith(f"{PRESETS[preset]['visc_40c_cst']:g}") and "preset" in ph
     assert page.evaluate("window.linesmith.jobJSON()") == job_before
+
+
+# ------------------------------------------------------------------ whole-assembly selection and fixes
+
+
+def _demo(site, name):
+    return copy.deepcopy(next(d["job"] for d in site["demos"] if d["file"].startswith(name)))
+
+
+def test_use_this_hose_makes_the_candidates_edits_and_can_be_undone(page, site):
+    # Source: calc.model.edits.apply_edits and calc.evaluate in CPython on the same job (independent of the page).
+    import calc
+    from calc.model.edits import apply_edits
+
+    job = _demo(site, "compact-hatch")
+    _open_job(page, job, "compact.json")
+    expected = calc.evaluate(copy.deepcopy(job))
+    k, cand = next((k, c) for k, c in enumerate(expected["lines"][1]["candidates"]) if not c["current"] and c["apply"])
+    page.click('[data-line-card="1"] details.candidates > summary')
+    page.click(f'[data-line-card="1"] [data-candidate-apply="{k}"]')
+    _settle(page)
+    want = apply_edits(job, cand["apply"])
+    assert _job(page)["lines"][1] == want["lines"][1]
+    badge = page.locator('[data-line-card="1"] .line-title [data-verdict]').first.get_attribute("data-verdict")
+    assert badge == cand["verdict"] == calc.evaluate(want)["lines"][1]["verdict"]
+    assert f"Done: Use {cand['class']} -{cand['dash']} on line 2" in page.text_content("#file-message")
+    page.click("#file-message .undo-edit")
+    _settle(page)
+    assert _job(page)["lines"][1] == job["lines"][1]
+    page.click("#file-message .dismiss")
+
+
+def test_a_fix_button_sets_the_field_and_its_advice_goes(page, site):
+    job = _demo(site, "compact-hatch")
+    ln = job["lines"][0]
+    ln.update(route_points_mm=[[0, 0, 0], [400, 0, 0], [400, 400, 0]], overall_length_mm=820.0, engine_movement_mm=25.0)
+    _open_job(page, job, "short.json")
+    button = page.locator('[data-line-card="0"] button.fix-apply[data-fix-path="lines[0].overall_length_mm"]')
+    # Source: L = (800 + 25 - 58) / 0.96 -> 799 mm cut, 857 mm end to end (exact arithmetic; see test_routes)
+    assert button.text_content() == "Set Overall assembly length of line 1 to 857 mm"
+    button.click()
+    _settle(page)
+    assert _job(page)["lines"][0]["overall_length_mm"] == 857
+    assert page.locator('button.fix-apply[data-fix-path="lines[0].overall_length_mm"]').count() == 0
+    page.click("#file-message .dismiss")
+
+
+def test_parts_are_numbered_from_1_and_adapters_named_by_their_end(page, site):
+    import calc
+
+    job = _demo(site, "swap-remote-reservoir")
+    _open_job(page, job, "swap.json")
+    rows = page.locator('[data-line-card="0"] tbody[data-condition="0"] tr[data-part] th')
+    labels = [rows.nth(i).text_content() for i in range(rows.count())]
+    expected = [p["label"] for p in calc.evaluate(copy.deepcopy(job))["lines"][0]["parts"]]
+    assert labels == expected
+    assert labels[0].startswith("the adapter at the pump end (") and labels[1].startswith("part 1 (")
+    sheet = page.locator('#sheet [data-sheet-line="0"]')
+    assert sheet.locator("[data-sheet-adapter]").first.text_content().startswith("Adapter: at the pump end")
+    assert sheet.locator('[data-sheet-part="1"]').text_content().startswith("2. Hose SAE 100R2AT -6")
+    assert "cut to 695 mm" in sheet.locator('[data-sheet-part="1"]').text_content()
+    # Source: 2 x the assembly's working pressure, common practice: 2 x 276 bar (SAE J517 100R2AT -6, from memory)
+    proof = calc.evaluate(copy.deepcopy(job))["lines"][0]["rating"]["proof_test_bar"]
+    _close(sheet.locator('[data-field="proof_test_bar"]').text_content(), proof, "proof test")
+
+
+def test_the_form_says_where_the_length_and_bends_of_a_routed_hose_come_from(page, site):
+    job = _demo(site, "light-truck-high-flow")
+    _open_job(page, job, "truck.json")
+    length = page.locator('[data-assembly-note="length"]').first
+    # Source: (1600 mm route + 20 mm movement - 70 mm cut-offs) / 0.96 = 1614.6 -> 1615 mm (exact arithmetic)
+    assert length.text_content().startswith("Worked out from the line's route points and the slack it needs: cut to 1615 mm")
+    bends = page.locator('[data-assembly-note="bends"]').first
+    assert bends.text_content().startswith("The route points give this hose's bends: 90° at 200 mm")

@@ -87,14 +87,22 @@ def test_pump_curve_is_the_pump_model_over_the_plot_range():
 
 def test_parts_carry_their_size_and_dash():
     # Source: dash = diameter in sixteenths of an inch (SAE J517 hose bore, SAE J514 tube OD; exact).
-    res = evaluate(demo_job())
-    for ln in res["lines"]:
+    # A hose or a fitting of a family sized in sixteenths carries its own dash size (a -6 flare end has a 6 mm
+    # bore: its size is still -6).
+    job = demo_job()
+    res = evaluate(job)
+    for ln, spec in zip(res["lines"], job["lines"]):
         for p in ln["parts"]:
             if p["kind"] == "device":
                 assert p["size_mm"] is None and p["dash"] is None
                 continue
+            own = spec["parts"][p["job_part"]].get("dash") if p["job_part"] is not None else None
+            if own is not None and spec["parts"][p["job_part"]].get("family") != "cone-24-l":
+                assert p["dash"] == own and p["dash_exact"]
+                continue
             assert p["dash"] == round(p["size_mm"] / 25.4 * 16)
             assert p["dash_exact"] == (abs(p["size_mm"] / 25.4 * 16 - p["dash"]) <= 0.15)
+    assert res["lines"][0]["parts"][0]["dash"] == 6 and res["lines"][0]["parts"][0]["size_mm"] == 6.0
     tube = [p for p in res["lines"][0]["parts"] if p["kind"] == "tube"][0]
     assert tube["size_mm"] == demo_job()["lines"][0]["parts"][tube["job_part"]]["od_mm"]
 

@@ -37,13 +37,20 @@ def test_user_figures_override_the_table():
     assert ln["rating"]["required_bar"] == pytest.approx(106.25)
 
 
-def test_barbed_fitting_refused_on_pressure_line():
+def test_barbed_fitting_on_a_pressure_line_fails_its_check_and_the_job_still_computes():
+    # Source: a clamped barb holds about 10 bar (common practice, no source): never on a pressure line.
     job = _demo()
     job["lines"][0]["parts"][0].update(family="barb-clamp", dash=6)
-    assert "must not be used on a pressure line" in _errors(job)["lines[0].parts[0].family"]
+    res = evaluate(job)
+    assert res["ok"]
+    end = _check(res["lines"][0], "pressure end")
+    assert [c["verdict"] for c in end] == ["fail"]
+    assert end[0]["message"].startswith("part 1 (") and "hose barb with clamp -6" in end[0]["message"]
+    assert "crimped or reusable pressure fitting" in end[0]["message"]
+    assert res["lines"][0]["verdict"] == "fail"
     ok = _demo()
     ok["lines"][1]["parts"][0].update(family="barb-clamp", dash=6)
-    assert evaluate(ok)["ok"]
+    assert not _check(evaluate(ok)["lines"][1], "pressure end")
 
 
 # -- checks -----------------------------------------------------------------------------------
@@ -56,7 +63,11 @@ def test_temperature_and_bend_failures_say_what_to_change():
     ln = evaluate(job)["lines"][0]
     bend = _check(ln, "bend radius")[0]
     # Source: SAE J517 100R2AT -6 minimum bend radius 5 in = 127 mm (from memory)
-    assert bend["verdict"] == "fail" and "under the minimum 127 mm" in bend["message"]
+    assert bend["verdict"] == "fail" and "60 mm radius, under the 127 mm minimum" in bend["message"]
+    assert bend["message"].startswith("bend the line wider") and "bend 1 of part 2 (hose SAE 100R2AT -6)" in bend["message"]
+    # the fix sets that bend's radius to the minimum, and names it by its place counting from 1
+    assert bend["fix"] == {"path": "lines[0].parts[1].bends[0].radius_mm", "value": 127.0,
+                           "label": "Centre-line radius of bend 1 of part 2"}
     temp = [c for c in _check(ln, "temperature") if c["verdict"] == "fail"][0]
     # Source: SAE J517 hose temperature limit +100 C for petroleum fluids (from memory)
     assert "limited to 100 C" in temp["message"] and temp["message"].startswith("use a part rated hotter")
@@ -68,9 +79,17 @@ def test_cut_length_from_overall_less_cutoffs():
     ln["overall_length_mm"] = 965.0
     ln["parts"][0].update(end="start", cutoff_mm=30.0)
     ln["parts"][2].update(end="end", cutoff_mm=35.0)
-    cut = _check(evaluate(job)["lines"][0], "cut length")[0]
+    res = evaluate(job)["lines"][0]
+    cut = _check(res, "length")[0]
     # Source: exact arithmetic 965 - 30 - 35 = 900 mm, equal to the 0.9 m hose
-    assert cut["verdict"] == "ok" and "cut the hose to 900 mm" in cut["message"]
+    assert "cut the hose to 900 mm" in cut["message"] and "typed on the hose is not used" not in cut["message"]
+    assert res["assembly"]["hose_cut_mm"] == 900.0 and res["assembly"]["length_source"] == "overall"
+    # a different typed length is not used, and the message says so (no loop for the user to close)
+    job["lines"][0]["parts"][1]["length_m"] = 1.2
+    again = evaluate(job)["lines"][0]
+    assert again["assembly"]["hose_cut_mm"] == 900.0
+    assert "the 1200 mm typed on the hose is not used" in _check(again, "length")[0]["message"]
+    assert not _check(again, "length")[0].get("fix")
 
 
 def _relief_margin(relief):
@@ -111,7 +130,8 @@ def test_demo_result_carries_rating_checks_and_candidates():
         r = ln["rating"]
         for k in ("working_bar", "burst_bar", "design_factor", "required_bar", "margin", "weakest_part"):
             assert k in r
-        assert ln["checks"] and all(set(c) == {"check", "verdict", "message"} for c in ln["checks"])
+        assert ln["checks"] and all({"check", "verdict", "message"} <= set(c) <= {"check", "verdict", "message", "fix"}
+                                    for c in ln["checks"])
         assert all(c["verdict"] in ("ok", "caution", "fail") for c in ln["checks"])
         assert isinstance(ln["candidates"], list)
         for c in ln["candidates"]:

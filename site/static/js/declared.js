@@ -38,3 +38,29 @@ export function resultPart(result, lineIndex, jobPart) {
   const line = result && (result.lines || [])[lineIndex];
   return (line && (line.parts || []).find((p) => p.job_part === jobPart)) || null;
 }
+
+// The unit kind of a job field, by its key (keys carry their unit: one unit per key in the job model).
+const JOB_UNITS = (() => {
+  const out = new Map();
+  const walk = (node) => {
+    if (!node || typeof node !== "object") return;
+    if (typeof node.key === "string" && "unit" in node && !out.has(node.key)) out.set(node.key, node.unit);
+    for (const f of node.fields || []) walk(f);
+    if (node.item) walk(node.item);
+    for (const v of Object.values(node.variants || {})) walk(v);
+  };
+  walk(readJSON("linesmith-model").job);
+  return out;
+})();
+
+export function jobFieldUnit(path) {
+  return JOB_UNITS.get(path.split(".").pop().replace(/\[\d+\]$/, "")) || null;
+}
+
+// An edit's value in words, in the display units: "1.042 m", "-8", "jic-37".
+export function editValue(path, value) {
+  const unit = jobFieldUnit(path);
+  if (typeof value === "number" && unit) return `${Number(fmt(value, unit, 6)).toString()} ${unitLabel(unit)}`.trim();
+  if (path.endsWith("dash") && typeof value === "number") return `-${value}`;
+  return String(value);
+}

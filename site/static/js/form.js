@@ -2,7 +2,7 @@
 // fills it from the job, writes edits back (engine units), and renders the lists
 // (operating points, lines, parts, bends) from the <template> of their record kind.
 import { clone, deletePath, el, getPath, parsePath, setPath } from "./util.js";
-import { fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
+import { fmt, fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
 import { resultPart } from "./declared.js";
 
 let model = null;       // describe_job()
@@ -151,6 +151,31 @@ export function refreshDashes() {
   }
 }
 
+// After a new result: beside the assembly hose's length and bends, what the engine worked out from the
+// line's route points or overall length (the field is then not used). Notes from an older result go.
+export function refreshAssemblyNotes() {
+  const form = formEl();
+  for (const old of form.querySelectorAll(".assembly-note")) old.remove();
+  ((state.result && state.result.lines) || []).forEach((line, li) => {
+    const a = line.assembly;
+    if (!a || a.hose_part == null) return;
+    const base = `lines[${li}].parts[${a.hose_part}]`;
+    const L = unitLabel("length_mm");
+    const from = { route: "the line's route points and the slack it needs", overall: "the line's overall length" }[a.length_source];
+    const length = form.querySelector(`[data-path="${CSS.escape(`${base}.length_m`)}"]`)?.closest(".fld");
+    if (length && from && a.hose_cut_mm != null) {
+      length.append(el("p", { class: "assembly-note small", "data-assembly-note": "length" },
+        `Worked out from ${from}: cut to ${fmt(a.hose_cut_mm, "length_mm", [0, 2])} ${L}. A length typed here is not used.`));
+    }
+    const bends = form.querySelector(`[data-path="${CSS.escape(`${base}.bends`)}"]`);
+    if (bends && a.bends_from_route) {
+      const words = a.bends.map((b) => `${fmt(b.angle_deg, "angle_deg", 0)}° at ${fmt(b.radius_mm, "length_mm", [0, 2])} ${L}`).join(", ") || "none";
+      bends.prepend(el("p", { class: "assembly-note small", "data-assembly-note": "bends" },
+        `The route points give this hose's bends: ${words}. Bends typed here are for a line with no route points and are not used.`));
+    }
+  });
+}
+
 export function fillAll() {
   const form = formEl();
   for (const holder of form.querySelectorAll(".list")) {
@@ -280,8 +305,16 @@ function onInput(event) {
   onChange({ localErrors: localErrors(), structural: false, recalc: true });
 }
 
+// The label a field shows on the form, for messages about it.
+function shownLabel(path) {
+  const target = findByPath(path);
+  const label = target && target.closest(".fld")?.querySelector("label");
+  return label ? label.textContent.trim() : path;
+}
+
 export function localErrors() {
-  return [...pendingText.keys()].map((path) => ({ path, message: "the text typed here is not a valid value; the last valid value is kept" }));
+  return [...pendingText.keys()].map((path) => ({ path, label: shownLabel(path),
+    message: "the text typed here is not a valid value; the last valid value is kept" }));
 }
 
 export function resetPending() {
@@ -395,7 +428,7 @@ export function showErrors(errors) {
     } else {
       const p = target.querySelector(":scope > .box-error");
       if (!p) continue;
-      p.textContent = p.textContent ? `${p.textContent}; ${e.message}` : `${e.path}: ${e.message}`;
+      p.textContent = p.textContent ? `${p.textContent}; ${e.message}` : `${e.label || e.path}: ${e.message}`;
       p.hidden = false;
     }
   }

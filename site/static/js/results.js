@@ -2,7 +2,7 @@
 // node pressures, rating with margins and cautions, hose candidates, thermal, plots.
 import { badge, el } from "./util.js";
 import { fmt, fmtDiff, toShow, unitLabel } from "./units.js";
-import { declared, heading, partDash } from "./declared.js";
+import { declared, editValue, heading } from "./declared.js";
 import { lineChart } from "./plots.js";
 
 let CAUTIONS = [];
@@ -27,49 +27,74 @@ export function cautionsList(cls = "cautions") {
   return box;
 }
 
-// The part as the user listed it, with the dash size the engine gives its size.
-function partLabel(job, result, li, k) {
-  const p = ((job.lines || [])[li] || {}).parts?.[k] || {};
-  const bits = [p.kind || "part"];
-  if (p.class) bits.push(`${p.class}${p.dash ? ` -${p.dash}` : ""}`);
-  const dash = partDash(result, li, k);
-  const tag = dash ? ` (${dash})` : "";
-  if (p.kind === "tube" && typeof p.od_mm === "number") bits.push(`${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")}${tag}`);
-  else if (typeof p.bore_mm === "number") bits.push(`${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")} bore${tag}`);
-  if (p.shape && p.shape !== "straight") bits.push(p.shape);
-  return `${k}: ${bits.join(" ")}`;
-}
-
 function ratingBlock(rating) {
   const box = el("div", { class: "rating" });
   if (!rating) return box;
   const P = U("pressure_bar");
+  const R = "lines[].rating.";
   const dl = el("dl", { class: "kv" });
   const row = (label, node) => dl.append(el("dt", {}, label), el("dd", {}, node));
-  const pressure = (v, field) => {
-    const span = el("span", {}, numCell("span", v, "pressure_bar", field, [1, 0]), v == null ? " (no rating known)" : ` ${P}`);
-    return span;
-  };
-  row("Assembly working pressure", pressure(rating.working_bar, "working_bar"));
-  row("Assembly burst pressure", pressure(rating.burst_bar, "burst_bar"));
-  row("Must hold", el("span", {}, numCell("span", rating.required_bar, "pressure_bar", "required_bar", [1, 0]), ` ${P} (${rating.required_basis || ""})`));
-  row("Working margin (working / must hold)", el("span", {}, numCell("span", rating.margin, null, "margin", 2)));
+  const pressure = (v, field, note = "") => el("span", {}, numCell("span", v, "pressure_bar", field, [1, 0]),
+    v == null ? " (no rating known)" : ` ${P}${note}`);
+  row(declared(`${R}working_bar`).label, pressure(rating.working_bar, "working_bar"));
+  row(declared(`${R}burst_bar`).label, pressure(rating.burst_bar, "burst_bar"));
+  row(declared(`${R}proof_test_bar`).label, pressure(rating.proof_test_bar, "proof_test_bar", " (2 × working, common practice)"));
+  row(declared(`${R}required_bar`).label, el("span", {}, numCell("span", rating.required_bar, "pressure_bar", "required_bar", [1, 0]), ` ${P} (${rating.required_basis || ""})`));
+  row(declared(`${R}margin`).label, el("span", {}, numCell("span", rating.margin, null, "margin", 2)));
   row(`Burst margin against ${rating.design_factor}:1`, el("span", {},
     numCell("span", rating.burst_margin, null, "burst_margin", 1), rating.burst_margin == null ? "" : ":1"));
   const wp = rating.weakest_part;
-  row("Weakest part", wp ? `part ${wp.index}, ${wp.description}` : "none rated");
-  if (rating.unrated_parts && rating.unrated_parts.length) row("Parts with no rating", rating.unrated_parts.map((i) => `part ${i}`).join(", "));
+  row(declared(`${R}weakest_part`).label, wp ? wp.label : "none rated");
+  const budget = (v, field) => (v == null ? "none" : el("span", {}, numCell("span", v, "pressure_bar", field, [1, 0]), ` ${P}`));
+  row(declared(`${R}dp_budget_bar`).label, budget(rating.dp_budget_bar, "dp_budget_bar"));
+  row(declared(`${R}dp_budget_cold_bar`).label, budget(rating.dp_budget_cold_bar, "dp_budget_cold_bar"));
   box.append(el("h4", {}, "Rating"), dl, cautionsList());
   return box;
 }
 
-function checksBlock(checks) {
+// The hose assembly as the engine worked it out: cut length, end to end, slack, bends.
+function assemblyBlock(line) {
+  const a = line.assembly;
+  if (!a || a.hose_cut_mm == null) return null;
+  const A = "lines[].assembly.";
+  const L = U("length_mm");
+  const dl = el("dl", { class: "kv", "data-assembly": "" });
+  const row = (label, node) => dl.append(el("dt", {}, label), el("dd", {}, node));
+  const mm = (v, field) => el("span", {}, numCell("span", v, "length_mm", field, [0, 2]), ` ${L}`);
+  const from = { route: "from the measured route and the slack it needs", overall: "from the overall length", typed: "as typed on the hose" };
+  const hose = (line.parts || []).find((p) => p.job_part === a.hose_part);
+  row(declared(`${A}hose_cut_mm`).label, el("span", {}, mm(a.hose_cut_mm, "hose_cut_mm"), ` (${hose ? hose.label : `part ${a.hose_part + 1}`}, ${from[a.length_source] || a.length_source})`));
+  row(declared(`${A}overall_mm`).label, el("span", {}, mm(a.overall_mm, "overall_mm"), " including ", mm(a.cutoff_mm, "cutoff_mm"), " of cut-off allowances"));
+  if (a.slack_mm != null) row(declared(`${A}slack_mm`).label, el("span", {}, mm(a.slack_mm, "slack_mm"), "; needed ", mm(a.slack_needed_mm, "slack_needed_mm")));
+  else if (a.slack_needed_mm != null) row(declared(`${A}slack_needed_mm`).label, mm(a.slack_needed_mm, "slack_needed_mm"));
+  if ((a.bends || []).length) {
+    row(a.bends_from_route ? "Bends (from the route points)" : declared(`${A}bends`).label,
+      a.bends.map((b) => `${fmt(b.angle_deg, "angle_deg", 0)}° at ${fmt(b.radius_mm, "length_mm", [0, 2])} ${L}`).join(", "));
+  }
+  return el("div", { class: "assembly" }, el("h4", {}, declared("lines[].assembly").label), dl);
+}
+
+// The button that makes a check's edit: "Set Bore of part 1 to 8 mm".
+function fixButton(fix, actions) {
+  const text = `Set ${fix.label} to ${editValue(fix.path, fix.value)}`;
+  const b = el("button", { type: "button", class: "fix-apply", "data-fix-path": fix.path }, text);
+  b.addEventListener("click", () => actions.applyEdits([fix], text));
+  return b;
+}
+
+function checkItem(c, actions) {
+  const li = el("li", { "data-check": c.check, "data-verdict": c.verdict }, badge(c.verdict), " ", el("strong", {}, `${c.check}: `), c.message);
+  if (c.fix && actions) li.append(" ", fixButton(c.fix, actions));
+  return li;
+}
+
+function checksBlock(checks, actions) {
   const box = el("div", { class: "checks" });
   const bad = checks.filter((c) => c.verdict !== "ok");
   const good = checks.filter((c) => c.verdict === "ok");
   if (bad.length) {
     const ul = el("ul", { class: "check-list" });
-    for (const c of bad) ul.append(el("li", { "data-check": c.check, "data-verdict": c.verdict }, badge(c.verdict), " ", el("strong", {}, `${c.check}: `), c.message));
+    for (const c of bad) ul.append(checkItem(c, actions));
     box.append(ul);
   } else {
     box.append(el("p", {}, "Every check passes."));
@@ -77,14 +102,14 @@ function checksBlock(checks) {
   if (good.length) {
     const det = el("details", { class: "passed" }, el("summary", {}, `${good.length} check${good.length > 1 ? "s" : ""} passed`));
     const ul = el("ul", { class: "check-list" });
-    for (const c of good) ul.append(el("li", { "data-check": c.check, "data-verdict": "ok" }, badge("ok"), " ", el("strong", {}, `${c.check}: `), c.message));
+    for (const c of good) ul.append(checkItem(c, actions));
     det.append(ul);
     box.append(det);
   }
   return box;
 }
 
-function partsTable(result, job, li) {
+function partsTable(result, li) {
   const table = el("table", { class: "parts-table", "data-line": String(li) });
   const head = el("tr");
   const P = "conditions[].lines[].parts[].";
@@ -103,11 +128,12 @@ function partsTable(result, job, li) {
       el("td", { class: "num" }, fmtDiff(line.temp_rise_c, declared("conditions[].lines[].temp_rise_c").unit)),
       el("td", { class: "num" }, inlet ? `in ${fmt(inlet.pressure_bar, "pressure_bar")}` : ""));
     tb.append(hr);
+    const built = (result.lines[li] || {}).parts || [];
     (line.parts || []).forEach((part, k) => {
       const node = (line.nodes || []).find((n) => n.after_part === k);
       const jobPart = part.job_part === undefined ? k : part.job_part;
       const tr = el("tr", { "data-part": String(k), "data-job-part": jobPart === null ? "adapter" : String(jobPart) });
-      tr.append(el("th", { scope: "row" }, part.adapter ? `adapter: ${part.adapter}` : partLabel(job, result, li, jobPart)),
+      tr.append(el("th", { scope: "row" }, (built[k] || {}).label || part.kind),
         resCell("td", part.velocity_m_s, `${P}velocity_m_s`, "velocity_m_s"),
         resCell("td", part.reynolds, `${P}reynolds`, "reynolds", 0),
         el("td", { "data-field": "regime" }, part.regime || ""),
@@ -121,56 +147,67 @@ function partsTable(result, job, li) {
   return el("div", { class: "table-wrap" }, table);
 }
 
-function candidatesBlock(cands) {
+function candidatesBlock(cands, li, actions) {
   const det = el("details", { class: "candidates" });
   const ok = cands.filter((c) => c.verdict !== "fail");
-  det.append(el("summary", {}, `Hose candidates: ${ok.length} pass of ${cands.length} (smallest, then lightest first)`));
+  det.append(el("summary", {}, `Hose candidates: ${ok.length} of ${cands.length} pass as whole assemblies (ends re-sized, ports re-planned)`));
   const table = el("table", { class: "cand-table" });
   const head = el("tr");
   const C = "lines[].candidates[].";
-  for (const t of ["#", heading(`${C}class`), heading(`${C}dash`), heading(`${C}bore_mm`), heading(`${C}verdict`),
-    heading(`${C}velocity_max_m_s`), heading(`${C}pressure_drop_bar`), heading(`${C}working_bar`),
-    heading(`${C}reasons`)]) head.append(el("th", { scope: "col" }, t));
+  for (const t of [heading(`${C}label`), heading(`${C}bore_mm`), heading(`${C}verdict`),
+    heading(`${C}pressure_drop_bar`), heading(`${C}velocity_max_m_s`), heading(`${C}working_bar`),
+    heading(`${C}reasons`), ""]) head.append(el("th", { scope: "col" }, t));
   table.append(el("thead", {}, head));
   const tb = el("tbody");
-  const SHOW_REJECTED = 6;
-  let rejected = 0;
   cands.forEach((c, i) => {
-    if (c.verdict === "fail" && ++rejected > SHOW_REJECTED) return;
-    tb.append(el("tr", { "data-candidate": String(i) },
-      el("td", { class: "num" }, String(i + 1)), el("td", {}, c.class), el("td", {}, `-${c.dash}`),
+    const why = [...(c.failed.length ? [`fails ${c.failed.join(", ")}`] : []),
+      ...(!c.failed.length && (c.cautioned || []).length ? [`cautions: ${c.cautioned.join(", ")}`] : []),
+      ...(c.note ? [c.note] : [])];
+    const act = el("td");
+    if (c.current) act.append(el("span", { class: "small" }, "the line's own"));
+    else if (actions) {
+      const b = el("button", { type: "button", class: "cand-apply", "data-candidate-apply": String(i) }, "Use this hose");
+      b.addEventListener("click", () => actions.applyEdits(c.apply, `Use ${c.class} -${c.dash} on line ${li + 1}`));
+      act.append(b);
+    }
+    const reasons = el("details", { class: "why" }, el("summary", {}, why.length ? why.join("; ") : (c.verdict === "ok" ? "passes" : "cautions")));
+    for (const r of c.reasons || []) reasons.append(el("p", { class: "small" }, r));
+    tb.append(el("tr", { "data-candidate": String(i), "data-verdict": c.verdict },
+      el("th", { scope: "row" }, `${c.class} -${c.dash}`),
       resCell("td", c.bore_mm, `${C}bore_mm`, "bore_mm", [2, 3]), el("td", {}, badge(c.verdict)),
+      el("td", { class: "num" }, resCell("span", c.pressure_drop_bar, `${C}pressure_drop_bar`, "pressure_drop_bar", [2, 1]),
+        el("span", { class: "small" }, ` at ${c.pressure_drop_at}`)),
       resCell("td", c.velocity_max_m_s, `${C}velocity_max_m_s`, "velocity_max_m_s"),
-      resCell("td", c.pressure_drop_bar, `${C}pressure_drop_bar`, "pressure_drop_bar", [3, 2]),
       resCell("td", c.working_bar, `${C}working_bar`, "working_bar", [0, 0]),
-      el("td", {}, (c.reasons || []).join("; "))));
+      el("td", {}, reasons), act));
   });
   table.append(tb);
   det.append(el("div", { class: "table-wrap" }, table));
-  if (rejected > SHOW_REJECTED) det.append(el("p", { class: "small" }, `${rejected - SHOW_REJECTED} more rejected candidates not listed.`));
   return det;
 }
 
-function circuitCard(result) {
+function circuitCard(result, actions) {
   const c = result.circuit;
   const card = el("article", { class: `line-card circuit-card verdict-${c.verdict}`, "data-circuit-card": "" });
   card.append(el("h3", { class: "line-title" }, badge(c.verdict), " ", el("span", {}, declared("circuit").label)));
-  card.append(checksBlock(c.checks || []));
+  card.append(checksBlock(c.checks || [], actions));
   return card;
 }
 
-function lineCards(result, job) {
+function lineCards(result, actions) {
   const box = document.getElementById("line-results");
   box.replaceChildren();
-  if (result.circuit) box.append(circuitCard(result));
+  if (result.circuit) box.append(circuitCard(result, actions));
   (result.lines || []).forEach((line, li) => {
     const verdict = line.verdict;
     const card = el("article", { class: `line-card verdict-${verdict}`, "data-line-card": String(li) });
-    card.append(el("h3", { class: "line-title" }, badge(verdict), " ", el("span", { class: "line-card-name" }, line.name || `line ${li + 1}`), ` (${line.role})`));
-    card.append(checksBlock(line.checks || []));
+    card.append(el("h3", { class: "line-title" }, badge(verdict), ` Line ${li + 1}: `, el("span", { class: "line-card-name" }, line.name || `line ${li + 1}`), ` (${line.role})`));
+    card.append(checksBlock(line.checks || [], actions));
+    const asm = assemblyBlock(line);
+    if (asm) card.append(asm);
     card.append(ratingBlock(line.rating));
-    card.append(el("h4", {}, "Per part and operating point"), partsTable(result, job, li));
-    if (line.candidates && line.candidates.length) card.append(candidatesBlock(line.candidates));
+    card.append(el("h4", {}, "Per part and operating point"), partsTable(result, li));
+    if (line.candidates && line.candidates.length) card.append(candidatesBlock(line.candidates, li, actions));
     box.append(card);
   });
 }
@@ -247,7 +284,7 @@ function warningsBlock(result) {
   if (!w.length) return;
   box.append(el("h3", {}, "Warnings"));
   const ul = el("ul", { class: "warn-list" });
-  for (const x of w) ul.append(el("li", {}, x.path ? `${x.path}: ${x.message}` : x.message));
+  for (const x of w) ul.append(el("li", { "data-warning-path": x.path || "" }, x.label ? `${x.label}: ${x.message}` : x.message));
   box.append(ul);
 }
 
@@ -262,7 +299,7 @@ function summaryBlock(result) {
   (result.lines || []).forEach((line, li) => {
     const bad = (line.checks || []).filter((c) => c.verdict !== "ok").map((c) => `${c.check} (${c.verdict})`);
     tb.append(el("tr", { "data-summary-line": String(li) },
-      el("th", { scope: "row" }, `${line.name || `line ${li + 1}`} (${line.role})`),
+      el("th", { scope: "row" }, `Line ${li + 1}: ${line.name || `line ${li + 1}`} (${line.role})`),
       el("td", {}, badge(line.verdict)),
       el("td", {}, bad.length ? bad.join(", ") : "none"),
       resCell("td", line.pressure_drop_max_bar, "lines[].pressure_drop_max_bar", "max_drop_bar", [2, 1]),
@@ -282,9 +319,10 @@ function summaryBlock(result) {
   box.append(table);
 }
 
-export function renderResult(result, job) {
+// actions: {applyEdits(edits, words)} to make an engine's edit (a fix or a candidate), or null.
+export function renderResult(result, actions = null) {
   summaryBlock(result);
-  lineCards(result, job);
+  lineCards(result, actions);
   thermalBlock(result);
   conditionBlocks(result);
   warningsBlock(result);
@@ -304,7 +342,7 @@ export function renderProblems(errors, localErrors, fault = null) {
   if (!all.length) return;
   box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; the results below are for the last job that computed:`));
   const ul = el("ul");
-  for (const e of all) ul.append(el("li", { "data-problem-path": e.path || "" }, e.path ? `${e.path}: ${e.message}` : e.message));
+  for (const e of all) ul.append(el("li", { "data-problem-path": e.path || "" }, e.label || e.path ? `${e.label || e.path}: ${e.message}` : e.message));
   box.append(ul);
 }
 

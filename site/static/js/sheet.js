@@ -7,13 +7,16 @@ import { cautionsList } from "./results.js";
 
 const U = (k) => unitLabel(k);
 
-// dash: the dash size the engine gives the part's size ("-6", "≈ -6" or "").
-function partSpec(p, dash = "") {
+// dash: the dash size the engine gives the part's size ("-6", "≈ -6" or ""); cutMm: the assembly's cut length
+// of this hose, where the engine worked it out.
+function partSpec(p, dash = "", cutMm = null) {
   if (p.kind === "hose") {
     const cls = p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "hose, class not named";
     const bore = typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}${dash ? ` (dash ${dash})` : ""}`
       : p.dash ? `, dash -${p.dash}` : "";
-    return `Hose ${cls}${bore}, length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`;
+    const length = cutMm != null ? `cut to ${fmt(cutMm, "length_mm", [0, 2])} ${U("length_mm")}`
+      : `length ${fmt(p.length_m, "length_m", [3, 2])} ${U("length_m")}`;
+    return `Hose ${cls}${bore}, ${length}`;
   }
   if (p.kind === "tube") {
     return `Rigid tube ${p.material || "steel-low-carbon"}, ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")} `
@@ -92,27 +95,39 @@ export function renderSheet(job, result) {
     const ports = r.ports || {};
     row("Start", endText(line.from_port, "start", ports.from_port));
     row("End", endText(line.to_port, "end", ports.to_port));
-    const cut = checkMessage(r, "cut length");
-    if (cut) row("Cut length", cut.message);
-    else if (typeof line.overall_length_mm === "number") row("Overall length", `${fmt(line.overall_length_mm, "length_mm", [0, 2])} ${U("length_mm")}`);
-    else row("Cut length", "not given (set the overall assembly length and the fittings' cut-off allowances)");
-    const lc = checkMessage(r, "length change");
-    if (lc) row("Slack", lc.message);
+    const a = r.assembly;
+    const L = U("length_mm");
+    if (a && a.hose_cut_mm != null) {
+      row("Cut length", el("span", { "data-field": "hose_cut_mm" }, `${fmt(a.hose_cut_mm, "length_mm", [0, 2])} ${L}`,
+        ` (part ${a.hose_part + 1}), ${fmt(a.overall_mm, "length_mm", [0, 2])} ${L} end to end`));
+    }
+    const lc = checkMessage(r, "length");
+    if (lc) row("Length and slack", lc.message);
     if (r.rating) {
       const ra = r.rating;
       const v = (value, kind, field, dec, suffix = "") => (value == null ? el("span", { "data-field": field }, "unknown")
         : el("span", {}, el("span", { "data-field": field, class: "num" }, fmt(value, kind, dec)), suffix));
       row("Rating", el("span", {}, "working ", v(ra.working_bar, "pressure_bar", "working_bar", [0, 0], ` ${P}`),
         ", burst ", v(ra.burst_bar, "pressure_bar", "burst_bar", [0, 0], ` ${P}`),
+        ", proof test ", v(ra.proof_test_bar, "pressure_bar", "proof_test_bar", [0, 0], ` ${P}`), " (2 × working)",
         "; must hold ", v(ra.required_bar, "pressure_bar", "required_bar", [1, 0], ` ${P}`), ` (${ra.required_basis})`));
       row("Margins", el("span", {}, "working / must hold ", v(ra.margin, null, "margin", 2),
         "; burst ", v(ra.burst_margin, null, "burst_margin", 1, ":1"), ` against ${ra.design_factor}:1`));
-      row("Weakest part", ra.weakest_part ? `part ${ra.weakest_part.index} (${ra.weakest_part.description})` : "none rated");
+      row("Weakest part", ra.weakest_part ? ra.weakest_part.label : "none rated");
     }
     sec.append(dl);
-    const ol = el("ol", { class: "sheet-parts", start: "0" });
-    (line.parts || []).forEach((p, k) => ol.append(el("li", {}, partSpec(p, partDash(result, li, k)))));
-    sec.append(el("h4", {}, "Parts in flow order (hose, tube, fittings and adapters)"), ol);
+    // in flow order as built: the user's parts by their number, the planned adapters by their end
+    const ul = el("ul", { class: "sheet-parts" });
+    for (const b of r.parts || []) {
+      if (b.job_part === null) {
+        ul.append(el("li", { "data-sheet-adapter": "" }, `Adapter: ${b.label.replace(/^the adapter /, "")}`));
+        continue;
+      }
+      const p = (line.parts || [])[b.job_part] || {};
+      const cut = a && a.hose_part === b.job_part ? a.hose_cut_mm : null;
+      ul.append(el("li", { "data-sheet-part": String(b.job_part) }, `${b.job_part + 1}. ${partSpec(p, partDash(result, li, b.job_part), cut)}`));
+    }
+    sec.append(el("h4", {}, "Parts in flow order (hose, tube, fittings and adapters)"), ul);
     const bad = (r.checks || []).filter((c) => c.verdict !== "ok");
     if (bad.length) {
       const ul = el("ul", { class: "check-list" });
@@ -129,14 +144,16 @@ export function renderSheet(job, result) {
     cur.qty += qty;
     tally.set(key, cur);
   };
-  for (const line of job.lines || []) {
-    for (const p of line.parts || []) {
-      if (p.kind === "hose") add(`Hose ${p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "(class not named)"}${typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}` : ""}`, p.length_m || 0, "length_m");
+  (job.lines || []).forEach((line, li) => {
+    const asm = ((result.lines || [])[li] || {}).assembly;
+    (line.parts || []).forEach((p, k) => {
+      const length = asm && asm.hose_part === k && asm.hose_cut_mm != null ? asm.hose_cut_mm / 1000 : p.length_m || 0;
+      if (p.kind === "hose") add(`Hose ${p.class ? `${p.class}${p.dash ? ` -${p.dash}` : ""}` : "(class not named)"}${typeof p.bore_mm === "number" ? `, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}` : ""}`, length, "length_m");
       else if (p.kind === "tube") add(`Tube ${p.material || "steel-low-carbon"} ${fmt(p.od_mm, "length_mm", [2, 3])} x ${fmt(p.wall_mm, "length_mm", [2, 3])} ${U("length_mm")}`, p.length_m || 0, "length_m");
       else if (p.kind === "fitting") add(`Fitting ${p.shape || "straight"} ${p.family || "(family not named)"}${p.dash ? ` -${p.dash}` : ""}, bore ${fmt(p.bore_mm, "length_mm", [1, 3])} ${U("length_mm")}`, 1, "count");
       else if (p.kind === "device") add(p.is_cooler ? "Cooler" : "Series device", 1, "count");
-    }
-  }
+    });
+  });
   for (const r of result.lines || []) {
     for (const plan of Object.values(r.ports || {})) {
       for (const a of (plan && plan.adapters) || []) add(`Adapter ${a.name}`, 1, "count");

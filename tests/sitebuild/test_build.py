@@ -36,7 +36,7 @@ def test_calc_wheel_is_reproducible_and_complete(tmp_path):
     second = wheel.build_calc_wheel(tmp_path / "b")
     assert first.read_bytes() == second.read_bytes()
     names = zipfile.ZipFile(first).namelist()
-    assert "calc/api.py" in names and "calc/__init__.py" in names
+    assert "calc/edges/api.py" in names and "calc/__init__.py" in names and "calc/checks/line.py" in names
     assert any(n.startswith("calc/data/demos/") and n.endswith(".json") for n in names)
     assert not any("__pycache__" in n for n in names)
     dist_name, version = first.name.split("-")[:2]
@@ -85,8 +85,8 @@ def test_lazy_packages_give_the_same_results_with_fewer_modules(tmp_path):
         "import linesmith_boot\n"
         "table = json.loads(sys.argv[1])\n"
         "if table: linesmith_boot.install_lazy_packages(table)\n"
-        "import calc.api, pathlib\n"
-        "out = [calc.api.handle(json.dumps({'op': 'evaluate', 'job': json.loads(p.read_text())}))\n"
+        "import calc.edges.api, pathlib\n"
+        "out = [calc.edges.api.handle(json.dumps({'op': 'evaluate', 'job': json.loads(p.read_text())}))\n"
         f"       for p in sorted(pathlib.Path({str(ROOT / 'calc' / 'data' / 'demos')!r}).glob('*.json'))]\n"
         "mods = sorted(m for m in sys.modules if m.split('.')[0] in ('fluids', 'ht'))\n"
         "print(json.dumps({'out': out, 'mods': mods}))\n", encoding="utf-8")
@@ -101,7 +101,7 @@ def test_lazy_packages_give_the_same_results_with_fewer_modules(tmp_path):
     import fluids
     import ht
     table = {"fluids": {}, "ht": {}}
-    for path in (ROOT / "calc").glob("*.py"):
+    for path in (ROOT / "calc").rglob("*.py"):
         import ast
         for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
             if isinstance(node, ast.ImportFrom) and node.level == 0 and node.module in table:
@@ -146,8 +146,9 @@ def test_build_ships_bytecode_for_the_browser_when_node_is_there(tmp_path):
         table = json.loads(zf.read("linesmith-lazy-names.json"))
     # The engine's modules on the page's path have Python 3.14 bytecode (the browser's CPython;
     # 3.11's would be useless); the command line's (cli, report) need none.
-    calc_modules = {"__init__", "api", "engine", "hydraulics", "model", "schema", "ratings", "thermal"}
-    shipped = {n.split("/")[-1].split(".")[0] for n in names if n.startswith("calc/__pycache__/")}
+    calc_modules = {"calc/__init__", "calc/edges/api", "calc/pipeline", "calc/model/job", "calc/model/schema",
+                    "calc/checks/line", "calc/stages/selection", "calc/stages/thermal", "calc/system/circuit"}
+    shipped = {n.replace("__pycache__/", "").split(".")[0] for n in names if n.startswith("calc/")}
     assert calc_modules <= shipped, sorted(calc_modules - shipped)
     assert all(n.endswith(".cpython-314.pyc") for n in names if n.startswith(("calc/", "fluids/", "ht/")))
     assert table["fluids"]["friction_factor"] == "friction"  # Source: fluids 1.3.1 defines it in fluids/friction.py
