@@ -15,7 +15,8 @@ The layers, each importing only the ones above it in this list:
 - ``calc.stages``: ports, assembly, circuit, lines, selection and thermal; each returns its own
   section of the result;
 - ``calc.pipeline``: ``evaluate`` and ``sweep``, which run the stages in order;
-- ``calc.edges``: the API the browser worker calls, the command line, the text report, units.
+- ``calc.edges``: the API the browser worker calls, the one reader of job files, the command line,
+  the text report, units.
 """
 __all__ = ["evaluate"]
 __version__ = "0.1.0"

@@ -1,4 +1,4 @@
-"""Test-session set-up: the Chromium every browser test launches.
+"""Test-session set-up: the Chromium every browser test launches; no test may fault the engine.
 
 The session fixture ``chromium`` runs ``tests.browser_setup.ensure_chromium`` once, when the
 first test that needs a browser sets up (a run without browser tests never touches it): it
@@ -6,6 +6,9 @@ finds a Chromium or installs one (Playwright's download, else the system's packa
 its messages and the installers' output on the terminal as it goes. If there is none and none
 could be installed, every browser test fails with the sentence saying what to install; the
 browser tests are never skipped.
+
+The autouse fixture ``no_engine_fault`` fails any test during which ``calc.edges.api.handle``
+answered with a fault of the engine itself (its tracebacks are in ``calc.edges.api.FAULTS``).
 """
 
 from __future__ import annotations
@@ -61,3 +64,18 @@ def chromium(request) -> browser_setup.Chromium:
         except browser_setup.BrowserSetupError as exc:
             failure = str(exc)
     pytest.fail(failure, pytrace=False)  # an error of every browser test, never a skip
+
+
+@pytest.fixture(autouse=True)
+def no_engine_fault():
+    """Every test fails on a fault of the engine behind ``calc.edges.api.handle`` (an "internal
+    error" reply), even one that does not read the reply: bad input must never reach one. A test
+    that makes a fault on purpose clears ``calc.edges.api.FAULTS`` itself."""
+    from calc.edges import api
+
+    api.FAULTS.clear()
+    yield
+    if api.FAULTS:
+        faults = "\n".join(api.FAULTS)
+        api.FAULTS.clear()
+        pytest.fail(f"the engine answered 'internal error' (calc.edges.api.FAULTS):\n{faults}", pytrace=False)

@@ -103,6 +103,7 @@ def budget_check(case: LineCase) -> dict | None:
                      f"{said(c['name'])}, over its {budget:g} bar budget {'at cold start' if is_cold else 'when warm'}"
                      " (common practice unless you set the budget)")
     worst = max(zip(case.conditions, case.results), key=lambda cr: cr[1]["pressure_drop_bar"])
+    limits = [f"{b:g} bar {w}" for b, w in ((warm, "warm"), (cold, "at cold start")) if b is not None]
+    noun = "budgets" if len(limits) > 1 else "budget"
     return check("pressure drop", "ok", f"the largest drop, {worst[1]['pressure_drop_bar']:.1f} bar at "
-                                        f"{said(worst[0]['name'])}, is within the budgets ({warm:g} bar warm, "
-                                        f"{cold:g} bar at cold start)")
+                                        f"{said(worst[0]['name'])}, is within the {noun} ({', '.join(limits)})")

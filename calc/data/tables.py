@@ -91,6 +91,8 @@ def size_row(rows, dash):
 
     Examples
     --------
+    The -6 row of SAE 100R2AT: 3/8 in bore (SAE J517, from memory), kept as 9.52 mm in the table:
+
     >>> size_row(hose_classes()["SAE 100R2AT"]["sizes"], 6)["bore_mm"]
     9.52
     """
@@ -106,6 +108,9 @@ def family_rating(fam, row=None):
 
     Examples
     --------
+    The table's figures (from memory): JIC -6 310.3 bar (SAE J514, the lower of two recalled figures), banjo
+    bolts 160 bar for every size (from memory, low confidence):
+
     >>> fam = fitting_families()["jic-37"]
     >>> family_rating(fam, size_row(fam["sizes"], 6)), family_rating(fitting_families()["banjo"])
     (310.3, 160.0)

@@ -7,57 +7,140 @@ source is assembled anywhere. Requests:
   (with ``"units": "us"`` the figures inside the sentences of checks and messages are
   given in US units; the numbers of the result stay in engine units) or
   ``{"ok": false, "errors": [...], "warnings": [...]}``;
+- ``{"op": "open", "file_base64": "...", "units": ...}`` -> a job file's bytes (base64) read by
+  ``calc.edges.jobfile.read_job_bytes``, the reader of the command line, then evaluated:
+  ``{"ok": true, "job": {...as written, less explicit nulls}, "result": {...}}`` or the errors;
 - ``{"op": "sweep", "job": {...}}`` -> the hydraulics only at each operating point
   (``calc.pipeline.sweep``);
 - ``{"op": "drop_curve", "job": {...}}`` -> pressure drop against fluid temperature for the
   page's plot: the sweep over the job's own temperature range (``calc.pipeline.drop_curve``);
-- ``{"op": "thread", "args": {"major_mm", "pitch_mm", "male", "tapered"}}`` -> thread candidates;
+- ``{"op": "thread", "args": {"major_mm", "pitch_mm", "male", "tapered"}}`` -> thread candidates
+  (``calc.system.threads.identify``; ``male`` true when not given, ``tapered`` null when not known);
 - ``{"op": "describe"}`` -> ``{"ok": true, "model": {...}}`` (the job model).
 
-``handle`` never raises: an internal error comes back as an error response
-naming the exception, so the page can show it and compute again next time.
+A request with a key its operation does not take, or an argument of the wrong kind, is refused
+with the argument's path (``units``, ``args.male``); the job's own problems keep the job's paths
+(``pump.relief_bar``). ``handle`` never raises: a fault of the engine itself comes back as
+``{"ok": false, "internal": true, "errors": [{"path": "", "message": "internal error: ..."}]}``
+and its traceback is kept in :data:`FAULTS`, where the tests look for it. Only a fault of the
+engine answers "internal error"; bad input never does.
 """
 from __future__ import annotations
 
+import base64
+import binascii
 import json
 import math
+import traceback
+from collections import deque
 
 from ..model.job import describe_job
+from ..model.schema import REQUIRED, Field, Record, key_text
 from ..pipeline import drop_curve, evaluate, sweep
-from ..system.threads import identify
+from ..system.threads import READING_RANGES, identify
+from .jobfile import loads, read_job_bytes, without_nulls
 from .units import localize_result
 
-__all__ = ["handle", "dispatch", "dumps", "finite", "MAX_REQUEST_CHARS"]
+__all__ = ["handle", "dispatch", "dumps", "finite", "MAX_REQUEST_CHARS", "FAULTS", "THREAD_ARGS", "OPERATIONS"]
 
 MAX_REQUEST_CHARS = 2_000_000
+
+#: Tracebacks of the last faults of the engine (never of bad input), newest last.
+FAULTS: deque = deque(maxlen=20)
+
+_UNITS = Field("units", "Display units", "choice", default="metric", choices=("metric", "us"))
+_FILE = Field("file_base64", "Job file (base64)", "text", default=REQUIRED, max_length=MAX_REQUEST_CHARS)
+
+
+def _reading(key: str, label: str) -> Field:
+    lo, hi = READING_RANGES[key]
+    return Field(key, label, unit="length_mm", default=REQUIRED, gt=lo, lt=hi)
+
+
+#: The thread operation's arguments (limits from ``calc.system.threads.READING_RANGES``).
+THREAD_ARGS = Record("args", "Thread reading", (
+    _reading("major_mm", "Caliper reading"), _reading("pitch_mm", "Pitch"),
+    Field("male", "Male thread", "bool", default=True),
+    Field("tapered", "Tapered", "bool", default=None),
+))
+
+#: What a request must give with its operation, in words.
+_NEEDS = {"job": "the job as a JSON object", "args": "major_mm and pitch_mm",
+          "file_base64": "the job file's bytes in base64"}
+#: Each operation and the keys its request takes besides "op".
+OPERATIONS = {"evaluate": ("job", "units"), "open": ("file_base64", "units"), "sweep": ("job",),
+              "drop_curve": ("job",), "thread": ("args",), "describe": ()}
+
+
+def _err(path: str, message: str) -> dict:
+    return {"ok": False, "errors": [{"path": path, "message": message}], "warnings": []}
 
 
 def _refused(res: dict) -> dict:
     return {"ok": False, "errors": res["errors"], "warnings": res.get("warnings", [])}
 
 
-def _thread(args) -> dict:
-    return {"ok": True, "result": identify(**args)}
+def _problems(request: dict) -> list[dict]:
+    """What is wrong with the request itself (not with its job), each with its path."""
+    op = request.get("op")
+    if not isinstance(op, str) or op not in OPERATIONS:
+        got = "nothing" if op is None else json.dumps(op)[:40]
+        return [{"path": "op", "message": f"must be one of {', '.join(map(repr, OPERATIONS))}, got {got}"}]
+    takes = OPERATIONS[op]
+    out = [{"path": key_text(key), "message": f"is not a key of the {op!r} operation (it takes "
+                                              f"{', '.join(takes) or 'nothing else'})"}
+           for key in request if key != "op" and key not in takes]
+    out += [{"path": key, "message": f"is missing: give {_NEEDS[key]}"}
+            for key in takes if key in _NEEDS and key not in request]
+    problems: list = []
+    for key, spec in (("args", THREAD_ARGS), ("units", _UNITS), ("file_base64", _FILE)):
+        if key in takes and key in request and (key in _NEEDS or request[key] is not None):
+            spec.check(request[key], key, problems, [])  # units: null means "not given"
+    return out + [p.as_dict() for p in problems]
 
 
-def dispatch(request: dict) -> dict:
+def _open(request: dict) -> dict:
+    try:
+        data = base64.b64decode(request["file_base64"], validate=True)
+    except (binascii.Error, ValueError):
+        return _err("file_base64", "is not base64 text: give the file's bytes in base64")
+    job, errors = read_job_bytes(data)
+    if errors:
+        return {"ok": False, "errors": errors, "warnings": []}
+    res = evaluate(job)
+    if not res.get("ok"):
+        return _refused(res)
+    return {"ok": True, "job": without_nulls(job), "result": localize_result(res, request.get("units") or "metric")}
+
+
+def dispatch(request) -> dict:
     """Handle a parsed request (see the module docstring)."""
     if not isinstance(request, dict):
         return _err("", "the request must be a JSON object")
-    op = request.get("op")
+    problems = _problems(request)
+    if problems:
+        return {"ok": False, "errors": problems, "warnings": []}
+    op = request["op"]
     if op == "evaluate":
-        res = evaluate(request.get("job"))
+        res = evaluate(request["job"])
         if not res.get("ok"):
             return _refused(res)
-        return {"ok": True, "result": localize_result(res, request.get("units", "metric"))}
+        return {"ok": True, "result": localize_result(res, request.get("units") or "metric")}
     if op in ("sweep", "drop_curve"):
-        res = (sweep if op == "sweep" else drop_curve)(request.get("job"))
+        res = (sweep if op == "sweep" else drop_curve)(request["job"])
         return {"ok": True, "result": res} if res.get("ok") else _refused(res)
-    if op == "describe":
-        return {"ok": True, "model": describe_job()}
+    if op == "open":
+        return _open(request)
     if op == "thread":
-        return _thread(request.get("args", {}))
-    return _err("op", f"unknown operation {op!r}")
+        args = THREAD_ARGS.check(request["args"], "args", [], [])
+        return {"ok": True, "result": identify(**args)}
+    return {"ok": True, "model": describe_job()}
+
+
+def _fault(exc: BaseException) -> str:
+    FAULTS.append(traceback.format_exc())
+    reply = _err("", f"internal error: {type(exc).__name__}: {exc}")
+    return json.dumps({**reply, "internal": True})
 
 
 def handle(request_json: str) -> str:
@@ -67,17 +150,19 @@ def handle(request_json: str) -> str:
     --------
     >>> json.loads(handle('{"op": "evaluate", "job": {"version": 1}}'))["errors"][0]["path"]
     'fluid'
+    >>> json.loads(handle('{"op": "thread", "args": {"major_mm": 14.2, "pitch_mm": 1.41, "male": "no"}}'))["errors"]
+    [{'path': 'args.male', 'message': "must be true or false, got text 'no'"}]
     """
     try:
         if not isinstance(request_json, str) or len(request_json) > MAX_REQUEST_CHARS:
             return json.dumps(_err("", "the request is not text or is too large"))
         try:
-            request = json.loads(request_json)
+            request = loads(request_json)
         except (ValueError, RecursionError) as exc:
             return json.dumps(_err("", f"the request is not valid JSON ({exc})"))
         return dumps(dispatch(request))
     except Exception as exc:  # the page must always get an answer it can show
-        return json.dumps(_err("", f"internal error: {type(exc).__name__}: {exc}"))
+        return _fault(exc)
 
 
 def finite(obj):
@@ -107,7 +192,3 @@ def dumps(obj, **kw) -> str:
         return json.dumps(obj, allow_nan=False, **kw)
     except ValueError:
         return json.dumps(finite(obj), allow_nan=False, **kw)
-
-
-def _err(path: str, message: str) -> dict:
-    return {"ok": False, "errors": [{"path": path, "message": message}], "warnings": []}

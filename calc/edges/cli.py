@@ -6,28 +6,68 @@ problem, naming the field by its path), 1 when a file cannot be read.
 from __future__ import annotations
 
 import argparse
+import codecs
 import json
 import sys
 
 from ..model.job import describe_job
 from ..model.result import describe_result
 from ..system.threads import BadReading, identify, parse_length, parse_pitch
+from .jobfile import MAX_JOB_FILE_BYTES
 from .units import label
 
-__all__ = ["main", "model_markdown", "result_markdown", "main_thread"]
+__all__ = ["main", "model_markdown", "result_markdown", "main_thread", "OUTPUT_ERRORS", "plain_output"]
+
+#: Plain ASCII for the unit signs a terminal's encoding may lack: "°C" is written "deg C"; the quotes around the
+#: user's own words (‘cold start’) become plain ones.
+_ASCII = {"°": "deg ", "³": "3", "²": "2", "·": " ", "µ": "u", "–": "-", "—": "-", "…": "...", "×": "x",
+          "±": "+/-", "≤": "<=", "≥": ">=", "\u2009": " ", "\u00a0": " ", "‘": "'", "’": "'"}
+#: The codec error handler of the command line's output (registered below).
+OUTPUT_ERRORS = "linesmith-plain"
+
+
+def plain_output(error: UnicodeEncodeError):
+    """Codec error handler: a unit sign the output's encoding lacks in plain ASCII, anything else
+    (a name's letters, a lone surrogate) as a backslash escape, so nothing typed is lost.
+
+    Examples
+    --------
+    >>> "20 °C, 1.5 cm³, 'Müller', '\\ud800'".encode("ascii", OUTPUT_ERRORS).decode("ascii")
+    "20 deg C, 1.5 cm3, 'M\\\\xfcller', '\\\\ud800'"
+    """
+    ch = error.object[error.start]
+    plain = _ASCII.get(ch)
+    if plain is None:
+        plain = ch.encode("ascii", "backslashreplace").decode("ascii")
+    return plain, error.start + 1
+
+
+codecs.register_error(OUTPUT_ERRORS, plain_output)
+
+
+def _plain_streams() -> None:
+    """Make stdout and stderr write what their encoding lacks with :func:`plain_output`."""
+    for stream in (sys.stdout, sys.stderr):
+        try:
+            stream.reconfigure(errors=OUTPUT_ERRORS)
+        except (AttributeError, ValueError, OSError):  # not a text file of io (a test's capture)
+            pass
 
 
 def _cmd_evaluate(args) -> int:
     from ..pipeline import evaluate  # the engine's libraries load only for this command
+    from .jobfile import read_job_bytes
     from .report import text_report
     try:
-        with open(args.job, encoding="utf-8") as fh:
-            job = json.load(fh)
+        with open(args.job, "rb") as fh:
+            data = fh.read(MAX_JOB_FILE_BYTES + 1)
     except OSError as exc:
         print(f"{args.job}: cannot read the file ({exc.strerror})", file=sys.stderr)
         return 1
-    except (ValueError, RecursionError) as exc:
-        print(f"{args.job}: not a valid JSON job file ({exc})", file=sys.stderr)
+    job, errors = read_job_bytes(data)
+    if errors:
+        for e in errors:
+            print(f"{args.job}: {e['message']}", file=sys.stderr)
         return 2
     res = evaluate(job)
     if not res["ok"]:
@@ -109,6 +149,7 @@ def model_markdown(model: dict) -> str:
 
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
+    _plain_streams()
     if argv and argv[0] == "thread":
         return main_thread(argv[1:])
     ap = argparse.ArgumentParser(prog="python -m calc", description="Linesmith: power-steering line calculator")

@@ -57,6 +57,8 @@ def to_display(value: float, kind: str, system: str = "metric") -> float:
 
     Examples
     --------
+    100 bar is 1e7 / 6894.757 = 1450.38 psi and 100 C is 212 F (NIST SP 811, exact):
+
     >>> round(to_display(100.0, "pressure_bar", "us"), 2)
     1450.38
     >>> to_display(100.0, "temp_c", "us")
@@ -117,6 +119,9 @@ def localize_text(text: str, system: str = "metric") -> str:
 
     Examples
     --------
+    Each figure by the exact factors above (106.2 bar = 1540.3 psi, 100 C = 212 F, 4.4 m/s = 14.4 ft/s,
+    8 mm = 0.315 in), shown to the same few significant figures:
+
     >>> localize_text("must hold 106.2 bar; the fluid runs -40 to 100 C", "us")
     'must hold 1540 psi; the fluid runs -40 to 212 F'
     >>> localize_text("velocity 4.4 m/s exceeds 2-6 m/s; use -6 or a larger bore (at least 8.0 mm)", "us")

@@ -14,10 +14,12 @@ the command line can share, and the browser engine must stay dependency-light.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass, field as dc_field
 from typing import Any
 
-__all__ = ["REQUIRED", "Field", "Record", "ListOf", "Variants", "Problem", "validate"]
+__all__ = ["REQUIRED", "Field", "Record", "ListOf", "Variants", "Problem", "validate", "number_problem",
+           "key_text"]
 
 
 class _Required:
@@ -55,7 +57,7 @@ class Field:
         Visible label on the page.
     kind : str
         ``"number"``, ``"integer"``, ``"text"``, ``"choice"``, ``"bool"``,
-        ``"points"`` (list of ``[x, y, z]`` triples) or ``"numbers"``.
+        or ``"points"`` (list of ``[x, y, z]`` triples).
     unit : str or None
         Unit kind for display conversion at the edges (see ``calc.edges.units``).
     default : Any
@@ -104,23 +106,11 @@ class Field:
     def check(self, value: Any, path: str, problems: list, warnings: list) -> Any:
         k = self.kind
         if k in ("number", "integer"):
-            if isinstance(value, bool) or not isinstance(value, (int, float)):
-                problems.append(Problem(path, f"must be a number, got {_kind_of(value)}"))
-                return None
-            if isinstance(value, int) and abs(value) > 10 ** 12:
-                problems.append(Problem(path, "is far too large to be a real value"))
-                return None
-            if not math.isfinite(value):
-                problems.append(Problem(path, "must be a finite number (NaN and infinity are not allowed)"))
-                return None
-            if k == "integer" and value != int(value):
-                problems.append(Problem(path, "must be a whole number"))
-                return None
-            if abs(value) > 1e12:
-                problems.append(Problem(path, "is far too large to be a real value"))
-                return None
-            if value != 0 and abs(value) < 1e-9:
-                problems.append(Problem(path, "is far too small to be a real value"))
+            reason = number_problem(value)
+            if reason is None and k == "integer" and value != int(value):
+                reason = "must be a whole number"
+            if reason:
+                problems.append(Problem(path, reason))
                 return None
             value = int(value) if k == "integer" else float(value)
             if self.gt is not None and not value > self.gt:
@@ -146,6 +136,12 @@ class Field:
             if len(value) > self.max_length:
                 problems.append(Problem(path, f"is longer than {self.max_length} characters"))
                 return None
+            lone = _LONE_SURROGATE.search(value)
+            if lone:
+                problems.append(Problem(path, f"holds a lone surrogate (\\u{ord(lone.group()):04x}) at character "
+                                              f"{lone.start() + 1}, which is no character on its own: retype "
+                                              "that character"))
+                return None
             return value
         if k == "choice":
             if not isinstance(value, str) or value not in self.choices:
@@ -159,21 +155,7 @@ class Field:
                 return None
             return value
         if k == "points":
-            if not isinstance(value, list):
-                problems.append(Problem(path, f"must be a list of [x, y, z] points, got {_kind_of(value)}"))
-                return None
-            if len(value) > 500:
-                problems.append(Problem(path, "has more than 500 points"))
-                return None
-            out = []
-            for i, p in enumerate(value):
-                if (not isinstance(p, list) or len(p) != 3 or
-                        any(isinstance(c, bool) or not isinstance(c, (int, float)) or not math.isfinite(c)
-                            or abs(c) > 1e7 for c in p)):
-                    problems.append(Problem(f"{path}[{i}]", "must be a point [x, y, z] of three finite numbers"))
-                    return None
-                out.append([float(c) for c in p])
-            return out
+            return _points(value, path, problems)
         raise AssertionError(f"unknown field kind {k}")  # pragma: no cover
 
 
@@ -232,10 +214,11 @@ class Record:
         out = {}
         for key in value:
             if key not in known:
-                problems.append(Problem(_join(path, key), "is not a known key here"))
+                problems.append(Problem(_join(path, key_text(key)), "is not a known key here"))
         for f in self.fields:
             p = _join(path, f.key)
-            if f.key in value:
+            given = f.key in value and not (value[f.key] is None and f.default is not REQUIRED)
+            if given:  # an explicit null for an optional field means "not given"
                 out[f.key] = f.check(value[f.key], p, problems, warnings)
             elif f.default is REQUIRED:
                 problems.append(Problem(p, "is missing"))
@@ -302,6 +285,74 @@ def validate(spec: Record, job: Any) -> tuple[Any, list[Problem], list[Problem]]
 
 
 # -- helpers --------------------------------------------------------------
+_LONE_SURROGATE = re.compile("[\ud800-\udfff]")
+#: Largest magnitude a job's number may have, and a route coordinate's (mm).
+MAX_MAGNITUDE = 1e12
+MAX_COORDINATE_MM = 1e7
+
+
+def number_problem(value) -> str | None:
+    """Why ``value`` is no usable number, or None when it is one.
+
+    A JSON integer can be far beyond float range (``10**400``); it is compared as an integer and
+    never converted, so no OverflowError can escape.
+
+    Examples
+    --------
+    >>> number_problem(10 ** 400), number_problem(True), number_problem(2.5) is None
+    ('is far too large to be a real value', 'must be a number, got true/false', True)
+    """
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        return f"must be a number, got {_kind_of(value)}"
+    if isinstance(value, int):
+        return "is far too large to be a real value" if abs(value) > MAX_MAGNITUDE else None
+    if not math.isfinite(value):
+        return "must be a finite number (NaN and infinity are not allowed)"
+    if abs(value) > MAX_MAGNITUDE:
+        return "is far too large to be a real value"
+    if value != 0 and abs(value) < 1e-9:
+        return "is far too small to be a real value"
+    return None
+
+
+def _points(value, path: str, problems: list):
+    """A list of [x, y, z] points in mm; every coordinate a finite number within 10 km of the datum."""
+    if not isinstance(value, list):
+        problems.append(Problem(path, f"must be a list of [x, y, z] points, got {_kind_of(value)}"))
+        return None
+    if len(value) > 500:
+        problems.append(Problem(path, "has more than 500 points"))
+        return None
+    out = []
+    for i, p in enumerate(value):
+        if not isinstance(p, list) or len(p) != 3:
+            problems.append(Problem(f"{path}[{i}]", "must be a point [x, y, z] of three finite numbers, got "
+                                                    + (f"a list of {len(p)}" if isinstance(p, list) else _kind_of(p))))
+            return None
+        for j, c in enumerate(p):
+            reason = number_problem(c)
+            if reason is None and abs(c) > MAX_COORDINATE_MM:
+                reason = f"must be within {MAX_COORDINATE_MM:g} mm of the datum"
+            if reason:
+                problems.append(Problem(f"{path}[{i}][{j}]", f"{reason} (a point is [x, y, z] in mm)"))
+                return None
+        out.append([float(c) for c in p])
+    return out
+
+
+def key_text(key: str) -> str:
+    r"""A key as it may appear in a path: escapes for what is no character, cut to 40 characters.
+
+    Examples
+    --------
+    >>> key_text("colour"), key_text("bad\ud800")
+    ('colour', 'bad\\ud800')
+    """
+    text = key.encode("utf-8", "backslashreplace").decode("utf-8")
+    text = "".join(ch if ch.isprintable() else ch.encode("unicode_escape").decode("ascii") for ch in text)
+    return text if len(text) <= 40 else text[:37] + "..."
+
+
 def _join(path: str, key: str) -> str:
     return f"{path}.{key}" if path else key
 

@@ -53,6 +53,8 @@ def valve_drop_pa(q_m3_s: float, nu_m2_s: float, rho_kg_m3: float, a: float, b: 
 
     Examples
     --------
+    Exact arithmetic on the formula: 1 x (1 x 1 x 2 + 1 x 2^2) = 6:
+
     >>> valve_drop_pa(2.0, 1.0, 1.0, 1.0, 1.0)
     6.0
     """

@@ -164,7 +164,8 @@ def plan_adapters(port: dict, line_end: dict) -> dict:
 
     Examples
     --------
-    A -6 37 deg flare hose end on an ISO 6149 M16x1.5 port needs one adapter:
+    A -6 37 deg flare hose end on an ISO 6149 M16x1.5 port needs one adapter, rated as its weaker end, the
+    stud's 250 bar (ISO 6149-2, from memory):
 
     >>> p = plan_adapters({"thread": "M16x1.5", "seal": "metric-oring"}, {"family": "jic-37", "dash": 6})
     >>> p["ok"], [a["name"] for a in p["adapters"]], p["adapters"][0]["working_bar"]

@@ -49,6 +49,8 @@ def default_hose_wall_mm(bore_mm: float) -> float:
 
     Examples
     --------
+    The table's 9.5 mm row, and its largest bore's wall beyond the table (table values, from memory):
+
     >>> default_hose_wall_mm(9.5), default_hose_wall_mm(100.0)
     (4.6, 6.3)
     """

@@ -48,9 +48,10 @@ from fractions import Fraction
 
 from ..data.practice import THREAD_TOLERANCE as TOLERANCE
 from ..data.tables import end_families, seal_words, threads
+from ..model.schema import number_problem
 from ..physics.threadform import basic_minor_diameter_mm
 
-__all__ = ["TOLERANCE", "BadReading", "thread_table", "expected_reading_mm", "identify", "parse_length",
+__all__ = ["TOLERANCE", "READING_RANGES", "BadReading", "thread_table", "expected_reading_mm", "identify", "parse_length",
            "parse_pitch"]
 
 
@@ -128,9 +129,15 @@ def _uses_of(thread) -> list[str]:
     return out
 
 
-def _check_number(name: str, value, lo: float, hi: float) -> float:
-    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
-        raise BadReading(f"{name}: must be a finite number, got {value!r}")
+#: The readings ``identify`` takes, each between these bounds (exclusive): a caliper reading in mm, a pitch in mm.
+READING_RANGES = {"major_mm": (1.0, 200.0), "pitch_mm": (0.2, 10.0)}
+
+
+def _check_number(name: str, value) -> float:
+    lo, hi = READING_RANGES[name]
+    reason = number_problem(value)
+    if reason:
+        raise BadReading(f"{name}: {reason}")
     if not lo < value < hi:
         raise BadReading(f"{name}: must be between {lo:g} and {hi:g}, got {value:g}")
     return float(value)
@@ -251,10 +258,12 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
     >>> r["match"], r["candidates"][0]["thread"], len(r["candidates"])
     ('none', 'M12x1.5', 2)
     """
-    major_mm = _check_number("major_mm", major_mm, 1.0, 200.0)
-    pitch_mm = _check_number("pitch_mm", pitch_mm, 0.2, 10.0)
+    major_mm = _check_number("major_mm", major_mm)
+    pitch_mm = _check_number("pitch_mm", pitch_mm)
+    if not isinstance(male, bool):
+        raise BadReading(f"male: must be true or false, got {_quoted(male)}")
     if tapered is not None and not isinstance(tapered, bool):
-        raise BadReading(f"tapered: must be true, false or null, got {tapered!r}")
+        raise BadReading(f"tapered: must be true, false or null, got {_quoted(tapered)}")
     rows = [_candidate(t, major_mm, pitch_mm, male, tapered) for t in threads().values()]
     rows.sort(key=lambda c: (not c["within"], c["score"], c["thread"]))
     good = [c for c in rows if c["within"]]
@@ -270,6 +279,17 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
 
 
 # -- parsing ----------------------------------------------------------------
+#: A reading above this (mm, tpi or inches) is no caliper or gauge reading; checked before any
+#: conversion to float, so a 400-digit number cannot overflow.
+_LARGEST_READING = 10 ** 6
+
+
+def _quoted(text) -> str:
+    """The reading as given, quoted, escapes for what is no character, long ones cut."""
+    s = repr(text)
+    return s if len(s) <= 40 else s[:37] + "..."
+
+
 def _number(s: str) -> Fraction:
     """'15.9', '5/8', '1-1/16', '1 1/16' -> exact Fraction."""
     s = s.strip()
@@ -314,13 +334,17 @@ def parse_length(text: str) -> float:
     s = text.strip().lower()
     m = re.fullmatch(r"(.+?)\s*(mm|in|inch|inches|\")", s)
     if not m:
-        raise BadReading(f"{text!r} is not a length with a unit (write it like '15.9mm' or '0.625in')")
+        raise BadReading(f"{_quoted(text)} is not a length with a unit (write it like '15.9mm' or '0.625in')")
     try:
         v = _number(m.group(1))
     except ValueError:
-        raise BadReading(f"{text!r} is not a length with a unit (write it like '15.9mm' or '0.625in')") from None
+        raise BadReading(f"{_quoted(text)} is not a length with a unit (write it like '15.9mm' or '0.625in')") from None
     if v <= 0:
-        raise BadReading(f"{text!r}: must be greater than 0")
+        raise BadReading(f"{_quoted(text)}: must be greater than 0")
+    if v > _LARGEST_READING:
+        raise BadReading(f"{_quoted(text)} is far too large for a caliper reading (write it like '15.9mm')")
+    if v < Fraction(1, _LARGEST_READING):
+        raise BadReading(f"{_quoted(text)} is far too small for a caliper reading (write it like '15.9mm')")
     return float(v if m.group(2) == "mm" else v * Fraction("25.4"))
 
 
@@ -347,8 +371,12 @@ def parse_pitch(text: str) -> float:
     s = text.strip().lower()
     m = re.fullmatch(r"(\d*\.?\d+)\s*(tpi|mm)", s)
     if not m:
-        raise BadReading(f"{text!r} is not a pitch (write it like '18tpi' or '1.5mm')")
-    v = float(m.group(1))
+        raise BadReading(f"{_quoted(text)} is not a pitch (write it like '18tpi' or '1.5mm')")
+    v = Fraction(m.group(1))
     if v <= 0:
-        raise BadReading(f"{text!r}: must be greater than 0")
-    return 25.4 / v if m.group(2) == "tpi" else v
+        raise BadReading(f"{_quoted(text)}: must be greater than 0")
+    if v > _LARGEST_READING:
+        raise BadReading(f"{_quoted(text)} is far too large for a pitch (write it like '18tpi' or '1.5mm')")
+    if v < Fraction(1, _LARGEST_READING):
+        raise BadReading(f"{_quoted(text)} is far too small for a pitch (write it like '18tpi' or '1.5mm')")
+    return float(Fraction("25.4") / v if m.group(2) == "tpi" else v)

@@ -17,6 +17,7 @@ const fileMessage = document.getElementById("file-message");
 const DEBOUNCE_MS = 250;
 const model = readJSON("linesmith-model");
 const demos = readJSON("linesmith-demos");
+const limits = readJSON("linesmith-limits"); // {job_file_max_bytes}: calc.edges.jobfile's
 setCautions(readJSON("linesmith-cautions"));
 
 const state = {
@@ -239,16 +240,17 @@ function toolbar() {
     const file = input.files && input.files[0];
     input.value = "";
     if (!file) return;
-    const read = await readJobFile(file, model.version);
-    if (read.error) { showFileMessage(`Not opened: ${read.error} The current job is unchanged.`); return; }
     if (!worker || body.dataset.engine !== "ready") { showFileMessage("Not opened: the engine is still starting; try again in a moment."); return; }
-    const reply = await call({ op: "evaluate", job: read.job });
+    const read = await readJobFile(file, limits.job_file_max_bytes);
+    if (read.error) { showFileMessage(`Not opened: ${read.error} The current job is unchanged.`); return; }
+    const reply = await call({ op: "open", file_base64: read.base64, units: getSystem() });
     if (!reply.ok) {
-      showFileMessage(`Not opened: ${file.name} has problems the engine reports below. The current job is unchanged.`, false,
+      const fault = (reply.errors || []).some(isEngineFault);
+      showFileMessage(`Not opened: ${fault ? `the engine failed while reading ${file.name}` : `${file.name} has problems the engine reports below`}. The current job is unchanged.`, false,
         (reply.errors || []).map((e) => (e.path ? `${e.path}: ${e.message}` : e.message)));
       return;
     }
-    loadJob(read.job);
+    loadJob(reply.job);
     showFileMessage(`Opened ${file.name}.`, true);
   });
   // thread identification

@@ -107,6 +107,7 @@ function call(id, request) {
     const text = String((error && error.message) || error).trim().split("\n").pop();
     response = JSON.stringify({
       ok: false,
+      internal: true,
       errors: [{ path: "", message: `internal error: ${text}` }],
       warnings: [],
     });

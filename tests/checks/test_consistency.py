@@ -114,3 +114,13 @@ def test_two_ends_that_do_not_seal_together_fail_naming_both():
     assert len(found) == 1 and found[0]["verdict"] == "fail"
     msg = found[0]["message"]
     assert msg.startswith("part 3 (") and "and part 4 (" in msg and "do not seal together" in msg
+
+
+def test_a_budget_on_only_one_side_is_stated_alone():
+    # Source: found by the fuzzer (tests/fuzzing.py): a feed line has no default budget, so a warm budget set
+    # by the user stands alone, and the message must say just that one.
+    job = _job()
+    job["lines"].append({"name": "feed", "role": "feed", "dp_budget_bar": 2.0, "parts": [
+        {"kind": "entrance", "bore_mm": 16.0}, {"kind": "hose", "class": "SAE 100R4", "dash": 12, "length_m": 0.5}]})
+    found, _ = _checks(job, "pressure drop", line=2)
+    assert len(found) == 1 and found[0]["message"].endswith("is within the budget (2 bar warm)")

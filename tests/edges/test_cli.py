@@ -58,3 +58,47 @@ def test_markdown_field_reference_lists_every_scalar_field():
     for path in ("`pump.relief_bar`", "`lines[].parts[].bore_mm`", "`conditions[].fluid_temp_c`",
                  "`thermal.air_temp_c`"):
         assert path in md
+
+
+def _run_ascii(*args):
+    import os
+    env = {**os.environ, "PYTHONIOENCODING": "ascii"}
+    return subprocess.run([sys.executable, "-m", "calc", *args], capture_output=True, env=env, timeout=120)
+
+
+@pytest.mark.parametrize("units, golden", [("metric", "report.txt"), ("us", "report-us.txt")])
+def test_report_on_an_ascii_terminal_writes_plain_ascii_units(units, golden):
+    # Source: stated behaviour (issue 16): with PYTHONIOENCODING=ascii the report degrades to ASCII units;
+    # the reference is the recorded UTF-8 report (tests/golden) with each sign written as plain ASCII.
+    from pathlib import Path
+    demo = Path(__file__).resolve().parents[2] / "calc" / "data" / "demos" / "compact-hatch.json"
+    r = _run_ascii("evaluate", str(demo), "--units", units)
+    assert r.returncode == 0, r.stderr.decode("ascii", "replace")
+    out = r.stdout.decode("ascii")  # raises if a byte is not ASCII
+    recorded = (Path(__file__).resolve().parents[1] / "golden" / f"compact-hatch.{golden}").read_text(encoding="utf-8")
+    plain = recorded.replace("°", "deg ").replace("³", "3").replace("²", "2").replace("·", " ")
+    plain = plain.replace("‘", "'").replace("’", "'")  # the quotes around the user's own words
+    assert out.replace("\r\n", "\n") == plain
+    assert ("deg C" if units == "metric" else "deg F") in out
+
+
+def test_names_on_an_ascii_terminal_are_escaped_not_lost(tmp_path):
+    # Source: stated behaviour: what the user typed is never lost; a letter the terminal lacks is escaped.
+    job = demo_job()
+    job["name"] = "Müller's car"
+    f = tmp_path / "job.json"
+    f.write_text(json.dumps(job), encoding="utf-8")
+    r = _run_ascii("evaluate", str(f))
+    assert r.returncode == 0
+    assert "Linesmith report: M\\xfcller's car" in r.stdout.decode("ascii")
+    job["pump"]["relief_bar"] = "85 °"
+    f.write_text(json.dumps(job), encoding="utf-8")
+    r = _run_ascii("evaluate", str(f))
+    assert r.returncode == 2 and "Traceback" not in r.stderr.decode("ascii")
+    assert "pump.relief_bar: must be a number, got text '85 deg '" in r.stderr.decode("ascii")
+
+
+def test_describe_on_an_ascii_terminal(tmp_path):
+    # Source: stated behaviour: every command's output degrades the same way.
+    r = _run_ascii("describe", "--markdown")
+    assert r.returncode == 0 and "deg C" in r.stdout.decode("ascii")

@@ -37,6 +37,7 @@ def test_prepare_fills_bore_and_ratings_from_the_class():
 def test_prepare_problems_name_the_field():
     job = _named(_demo(), dash=7)
     errs = _errors(job)
+    # Source: calc/data/hoses.json, SAE J517 100R2AT sizes (from memory): -4, -5, -6, -8 ..., no -7.
     assert errs["lines[0].parts[1].dash"].startswith("SAE 100R2AT has no -7; sizes: -4, -5, -6")
     job = _named(_demo(), cls="SAE 100R99")
     assert "unknown hose class 'SAE 100R99'" in _errors(job)["lines[0].parts[1].class"]
@@ -44,6 +45,7 @@ def test_prepare_problems_name_the_field():
     assert "maker's datasheet" in _errors(job)["lines[0].parts[1].bore_mm"]
     job = _demo()
     job["lines"][0]["parts"][0].update(family="jic-37", dash=7)
+    # Source: calc/data/fittings.json, SAE J514 37 deg flare sizes (from memory): -2 to -6, then -8; no -7.
     assert "sizes: -2, -3, -4, -5, -6, -8" in _errors(job)["lines[0].parts[0].dash"]
 
 

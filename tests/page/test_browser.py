@@ -201,7 +201,7 @@ def test_worker_recovers_after_an_engine_failure(built_site, probe):
     request = {"op": "evaluate", "job": demo}
     probe_worker(probe["page"]).evaluate(FAULT_ONCE_JS)
     failed = probe["call"](request)
-    assert failed["ok"] is False
+    assert failed["ok"] is False and failed["internal"] is True  # a fault of the engine, marked as such
     message = failed["errors"][0]["message"]
     assert "simulated engine fault" in message and "Traceback" not in message, message
     # The very next request computes again, with the same numbers as before the failure.
@@ -218,18 +218,29 @@ def test_worker_answers_hostile_requests_and_keeps_working(built_site, probe):
     page = probe["page"]
     job = built_site["demos"][0]["job"]
     good = json.dumps({"op": "evaluate", "job": job})
+    route = {**job, "lines": [{**job["lines"][0], "route_points_mm": [[0, 0, 0], [1, 2, 3]]}, *job["lines"][1:]]}
     for label, text in [
         ("malformed JSON", good[:-7]),
         ("wrong version", json.dumps({"op": "evaluate", "job": {**job, "version": 99}})),
         ("infinite number", good.replace('"version": 1', '"version": 1e999', 1)),
         ("deep nesting", '{"op": "evaluate", "job": ' + "[" * 100_000 + "]" * 100_000 + "}"),
         ("enormous", json.dumps({"op": "evaluate", "job": {**job, "name": "x" * 3_000_000}})),
+        ("integer beyond float range in a route",
+         json.dumps({"op": "evaluate", "job": route}).replace("[1, 2, 3]", "[" + "9" * 400 + ", 2, 3]", 1)),
+        ("lone surrogate", json.dumps({"op": "evaluate", "job": {**job, "name": "a\ud800"}})),
+        ("boolean for a number", json.dumps({"op": "evaluate", "job": {**job, "version": True}})),
+        ("thread: text for male", json.dumps({"op": "thread", "args": {"major_mm": 14.2, "pitch_mm": 1.41,
+                                                                       "male": "no"}})),
+        ("thread: no arguments", json.dumps({"op": "thread"})),
+        ("unknown units", json.dumps({"op": "evaluate", "job": job, "units": "imperial"})),
+        ("job file not base64", json.dumps({"op": "open", "file_base64": "%%%"})),
     ]:
         reply = json.loads(page.evaluate("(r) => window.__probe.call(r)", text)["response"])
         assert reply["ok"] is False and reply["errors"], label
+        assert "internal" not in reply, (label, reply)  # bad input is never a fault of the engine
         for error in reply["errors"]:
             assert isinstance(error["path"], str) and error["message"], (label, error)
-            assert "Traceback" not in error["message"], (label, error)
+            assert "Traceback" not in error["message"] and "internal error" not in error["message"], (label, error)
     assert probe["call"]({"op": "evaluate", "job": job})["ok"] is True
 
 

@@ -8,7 +8,8 @@ file so two builds differ), serve it on loopback and drive Chromium:
 - a second build replaces the first cleanly: while a page of the first build is
   open it is served only the first build's files, then the new worker takes over,
   and only the new build's cache is left; every response carries the page's
-  Content-Security-Policy and no request leaves the origin.
+  Content-Security-Policy and no request leaves the origin;
+- what the README says a plain static server loses: its worker runs with no policy.
 """
 from __future__ import annotations
 
@@ -236,3 +237,47 @@ def test_new_build_replaces_the_cache_without_mixing_builds(browser, tmp_path):
         assert not [m for m in log["console"] if "Content Security Policy" in m], log["console"]
         _assert_same_origin(log, url)
         context.close()
+
+
+# What the README says a plain static server loses (checked below in the browser).
+README_PLAIN_SERVER = ("A plain static server sends neither header, so the engine's worker runs with no "
+                       "Content-Security-Policy")
+_FOREIGN_FETCH = "(url) => fetch(url, {mode: 'no-cors'}).then(() => 'fetched', (e) => 'refused: ' + e.name)"
+
+
+def _app_worker(page):
+    page.wait_for_function("() => document.body.dataset.engine !== undefined", timeout=BOOT_TIMEOUT_MS)
+    deadline = time.monotonic() + BOOT_TIMEOUT_MS / 1000
+    while time.monotonic() < deadline:
+        workers = [w for w in page.workers if urlsplit(w.url).path.endswith("/worker.js")]
+        if workers:
+            return workers[0]
+        page.wait_for_timeout(50)
+    pytest.fail("the page started no engine worker")
+
+
+def test_a_plain_server_leaves_the_worker_without_its_policy_as_the_readme_says(browser, plain_static_server,
+                                                                               tmp_path):
+    # Source: stated behaviour (README "Using the calculator offline"; issue 16): a worker takes its
+    # policy from its own response headers only. Under `python build.py serve` the worker cannot reach
+    # another origin; under a plain static server it can, while the page (meta policy) still cannot.
+    from pathlib import Path
+    readme = " ".join((Path(__file__).resolve().parents[2] / "README.md").read_text(encoding="utf-8").split())
+    assert README_PLAIN_SERVER in readme
+    other = tmp_path / "other"
+    other.mkdir()
+    (other / "probe.txt").write_text("another origin", encoding="utf-8")
+    import urllib.request
+    with urllib.request.urlopen(plain_static_server + "worker.js", timeout=10) as response:
+        assert response.headers["Content-Security-Policy"] is None and response.headers["X-Content-Type-Options"] is None
+    with urllib.request.urlopen(plain_static_server + "wheels/", timeout=10) as response:
+        assert b"Directory listing" in response.read()  # the README says a plain server lists folders
+    with serve_directory(tmp_path / "site") as served, serve_directory(other) as foreign:
+        for url, worker_gets in ((served, "refused: TypeError"), (plain_static_server, "fetched")):
+            context = browser.new_context(service_workers="block")
+            page = context.new_page()
+            page.goto(url)
+            worker = _app_worker(page)
+            assert worker.evaluate(_FOREIGN_FETCH, foreign + "probe.txt") == worker_gets, url
+            assert page.evaluate(_FOREIGN_FETCH, foreign + "probe.txt") == "refused: TypeError", url
+            context.close()

@@ -345,32 +345,38 @@ def test_job_file_and_autosave_survive_a_reload(page, site, tmp_path):
     page.click("#file-message .dismiss")
 
 
-BAD_FILES = [
-    ("broken.json", b'{"version": 1, "name": ', "not valid JSON"),
-    ("list.json", b"[1, 2, 3]", "must be a JSON object"),
-    ("old.json", b'{"version": 7, "lines": []}', "version 7"),
-    ("empty-job.json", b'{"version": 1}', "fluid: is missing"),
-    ("huge.json", b'{"version": 1, "notes": "' + b"x" * 1_100_000 + b'"}', "under 1 MB"),
-]
+def test_job_file_table_opens_and_refuses_as_the_command_line_does(page, site):
+    """The shared table of job files (tests/job_file_cases.py) through the "Open job file" input.
 
-
-def test_bad_job_files_are_refused_and_the_job_kept(page, site):
+    The same table runs through the command line and the API in tests/edges/test_job_files.py: a
+    file that opens gives the same job and result, one that is refused names the same field with the
+    same words, and the current job is kept.
+    """
     import calc
 
+    from ..job_file_cases import CASES
+
     _reset(page)
-    page.fill('[data-path="pump.relief_bar"]', "90")
-    _settle(page)
-    before = page.evaluate("() => window.linesmith.jobJSON()")
-    shown = _line_cell(page, 0, 0, "pressure_drop_bar")
-    _close(shown, calc.evaluate(json.loads(before))["conditions"][0]["lines"][0]["pressure_drop_bar"], "drop")
-    for name, content, words in BAD_FILES:
-        page.set_input_files("#job-open", files=[{"name": name, "mimeType": "application/json", "buffer": content}])
-        page.wait_for_selector(f"#file-message.bad:has-text('{name}')", timeout=30_000)
-        message = page.text_content("#file-message")
-        assert words in message and "unchanged" in message, message
-        assert page.evaluate("() => window.linesmith.jobJSON()") == before, name
-        assert page.input_value('[data-path="pump.relief_bar"]') == "90"
-        assert _line_cell(page, 0, 0, "pressure_drop_bar") == shown
+    for case in CASES:
+        before = page.evaluate("() => window.linesmith.jobJSON()")
+        shown = _line_cell(page, 0, 0, "pressure_drop_bar")
+        page.set_input_files("#job-open", files=[{"name": case.name, "mimeType": "application/json",
+                                                  "buffer": case.data}])
+        if case.path is None:
+            page.wait_for_selector(f"#file-message.ok:has-text('Opened {case.name}')", timeout=30_000)
+            _settle(page)
+            assert _job(page) == case.job, case.name
+            # Source: calc.evaluate() in CPython on the same job is the reference.
+            assert _check_lines_table(page, calc.evaluate(case.job)) >= 9, case.name
+        else:
+            page.wait_for_selector(f"#file-message.bad:has-text('{case.name}')", timeout=30_000)
+            message = page.text_content("#file-message")
+            assert "unchanged" in message and "internal error" not in message, (case.name, message)
+            problems = page.locator("#file-message li").all_text_contents()
+            lead = f"{case.path}: " if case.path else ""
+            assert any(p.startswith(lead) and case.words in p for p in problems), (case.name, problems)
+            assert page.evaluate("() => window.linesmith.jobJSON()") == before, case.name
+            assert _line_cell(page, 0, 0, "pressure_drop_bar") == shown, case.name
         page.click("#file-message .dismiss")
 
 

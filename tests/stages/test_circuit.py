@@ -12,14 +12,15 @@ LPM = 1 / 60000
 
 
 def test_hydraulic_power_common_practice_formula():
-    # Source: hydraulic power [hp] = p [psi] Q [gpm] / 1714 (common practice, no source);
-    # 1 hp = 745.7 W (mechanical horsepower, NIST SP 811).
-    res = evaluate(demo_job())
-    c = res["conditions"][1]
-    p_psi = c["pump_outlet_bar"] * 14.503773773
-    q_gpm = c["circuit_flow_lpm"] / 3.785411784
-    watts = c["pump_outlet_bar"] * 1e5 * c["circuit_flow_lpm"] * LPM
-    assert watts / 745.6999 == pytest.approx(p_psi * q_gpm / 1714, rel=2e-3)
+    # Source: hydraulic power [hp] = p [psi] x Q [gpm] / 1714 (common practice, no source; 1714 rounds 1714.25);
+    # 1 hp = 745.7 W, 1 psi = 6894.757 Pa, 1 US gal = 3.785411784 L (NIST SP 811). The figures are the job's own:
+    # at full lock the pump's whole geometric flow, 10 cm3/rev x 2000 rpm x 1.0 = 20 L/min (exact), works against
+    # the 85 bar relief from 0 bar at the inlet (no feed line listed).
+    job = simple_job(relief_bar=85.0)
+    job["conditions"] = [{"name": "lock", "engine_rpm": 2000, "fluid_temp_c": 80, "full_lock": True}]
+    c = evaluate(job)["conditions"][0]
+    hp = (85e5 / 6894.757293168) * (20.0 / 3.785411784) / 1714
+    assert c["heat_hydraulic_w"] == pytest.approx(hp * 745.69987, rel=1e-3)
 
 
 def test_transition_band_is_flagged_in_the_result():

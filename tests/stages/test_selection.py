@@ -150,3 +150,23 @@ def test_every_class_shows_its_smallest_passing_size_and_the_one_below():
                 if passing:
                     smaller = [c for c in cs if c["bore_mm"] < passing[0]["bore_mm"]]
                     assert all(c["verdict"] == "fail" for c in smaller)
+
+
+def test_a_candidates_hose_friction_is_hagen_poiseuille_at_cold_start():
+    # Source: Hagen-Poiseuille, exact for laminar flow: the hose loses 32 nu rho L v / D^2 in friction, with the
+    # candidate's tabulated bore (SAE J517 / EN 853, from memory), the demo return hose's 1.2 m and the circuit
+    # flow at cold start; viscosity and density are the engine's fluid model's (held against ASTM D341 in
+    # tests/physics/test_fluid.py). The candidate's own largest drop is the applied job's (consistency).
+    import math
+    job = DEMOS["compact-hatch"]
+    for cand in RESULTS["compact-hatch"]["lines"][1]["candidates"]:
+        res = evaluate(apply_edits(job, cand["apply"]))
+        cold = res["conditions"][0]
+        hose = next(p for p in cold["lines"][1]["parts"] if p["kind"] == "hose")
+        assert hose["regime"] == "laminar"
+        d = cand["bore_mm"] / 1000
+        v = cold["circuit_flow_lpm"] / 60000 / (math.pi / 4 * d ** 2)
+        hp = 32 * cold["viscosity_cst"] * 1e-6 * cold["density_kg_m3"] * 1.2 * v / d ** 2 / 1e5
+        assert hose["friction_bar"] == pytest.approx(hp, rel=1e-9)
+        assert max(c["lines"][1]["pressure_drop_bar"] for c in res["conditions"]) == pytest.approx(
+            cand["pressure_drop_bar"], rel=1e-12)

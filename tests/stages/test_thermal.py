@@ -134,9 +134,27 @@ def test_steady_state_balances_heat_and_rejection():
     assert th["steady"]["status"] == "converged"
     t = th["steady_temp_c"]
     assert th["air_temp_c"] < t < th["limit_c"]
-    # Source: definition of the steady state, duty-weighted heat in = heat out; within the 0.05 K tolerance
-    # times the slope of the balance (a few W/K here).
+    # Source: consistency of the solver, not an independent figure (both sides are the engine's): at the steady
+    # state the duty-weighted heat in equals the heat out, within the 0.05 K tolerance times the slope of the
+    # balance (a few W/K here). The exact steady temperature is checked in the test below.
     assert th["steady_heat_w"] == pytest.approx(th["steady_rejected_w"], abs=0.05 * 10)
+
+
+def test_steady_temperature_of_a_circuit_cooled_by_its_reservoir_alone_is_exact():
+    # Source: steady energy balance, exact: P = UA (T - T_air). The relief (20 bar) is open at every temperature
+    # (the pressure line's device drops 50 bar, orifice-like), so the pump's whole geometric flow,
+    # 10 cm3/rev x 1500 rpm = 15 L/min, crosses 20 bar from 0 bar at the inlet: P = 500 W whatever the
+    # temperature; the lines are devices with no wall in the air, so only the reservoir rejects,
+    # UA = 0.5 m2 x 20 W/(m2 K) = 10 W/K: T = 40 + 500 / 10 = 90 C.
+    job = simple_job(relief_bar=20.0)
+    job["lines"] = [{"name": "p", "role": "pressure", "parts": [{"kind": "device", "dp_bar": 50.0, "at_flow_lpm": 7.5}]},
+                    {"name": "r", "role": "return", "parts": [{"kind": "device", "dp_bar": 0.5, "at_flow_lpm": 7.5}]}]
+    job["conditions"] = [{"name": "run", "engine_rpm": 1500, "fluid_temp_c": 60, "duty_percent": 100}]
+    job["thermal"] = {"air_temp_c": 40.0, "reservoir_area_m2": 0.5, "reservoir_h_w_m2k": 20.0}
+    th, ops = run(job)
+    assert ops[0]["relief_open"] and ops[0]["heat_w"] == pytest.approx(15 * LPM * 20 * BAR, rel=1e-12)
+    assert th["steady"]["status"] == "converged"
+    assert th["steady_temp_c"] == pytest.approx(90.0, abs=STEADY_TOL_K)
 
 
 def test_no_duty_cycle_is_reported_not_raised():
@@ -317,8 +335,31 @@ def test_result_keys():
 
 
 def test_evaluate_carries_heat_per_condition():
-    r = evaluate(demo_job())
-    assert r["ok"] and all("heat_w" in c and "heat_rejected_w" in c for c in r["conditions"])
+    job = demo_job()
+    r = evaluate(job)
+    assert r["ok"]
+    pump, thermal = job["pump"], job.get("thermal", {})
+    area = thermal.get("reservoir_area_m2", 0.04) * thermal.get("reservoir_h_w_m2k", 10.0)  # declared defaults
+    air = thermal.get("air_temp_c", 50.0)
+    for c in r["conditions"]:
+        # Source: geometric flow = displacement x engine speed x pulley ratio (exact), from the job's own figures.
+        q_geo = pump["displacement_cc_rev"] * c["engine_rpm"] * pump.get("pulley_ratio", 1.0) / 1000.0
+        assert c["pump_geometric_lpm"] == pytest.approx(q_geo, rel=1e-12)
+        # Source: first-law energy balance (exact): the whole geometric flow is raised from the inlet pressure to
+        # the pressure the pump works against, and all of it becomes heat, split into leakage, bypass and circuit.
+        rise = (c["pump_internal_bar"] - c["pump_inlet_bar"]) * BAR
+        assert c["heat_hydraulic_w"] == pytest.approx(q_geo * LPM * rise, rel=1e-9)
+        d = c["heat_detail"]
+        assert d["leakage_w"] + d["bypass_w"] + d["circuit_w"] == pytest.approx(c["heat_hydraulic_w"], rel=1e-12)
+        assert c["heat_w"] == pytest.approx(c["heat_hydraulic_w"] + c["heat_pump_loss_w"], rel=1e-12)
+        # Source: Newton's law of cooling with the job's reservoir coefficient, exact: h A (T - T_air).
+        rejected = c["heat_rejected_detail"]
+        assert rejected["reservoir_w"] == pytest.approx(area * (c["fluid_temp_c"] - air), rel=1e-12, abs=1e-12)
+        assert c["heat_rejected_w"] == pytest.approx(rejected["lines_w"] + rejected["reservoir_w"]
+                                                     + rejected["cooler_w"], rel=1e-12, abs=1e-12)
+    lock = next(c for c in r["conditions"] if c["full_lock"])
+    # Source: at full lock the pump works against its relief setting (definition of full lock in the model).
+    assert lock["pump_outlet_bar"] == pytest.approx(pump["relief_bar"], rel=1e-12)
 
 
 def test_evaluate_carries_thermal_section():

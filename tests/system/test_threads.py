@@ -132,11 +132,15 @@ def test_candidate_shape_and_tolerance_statement():
 
 
 @pytest.mark.parametrize("args, name", [((float("nan"), 1.5), "major_mm"), ((-1.0, 1.5), "major_mm"),
-                                        ((16.0, 0.0), "pitch_mm"), ((16.0, "1.5"), "pitch_mm")])
+                                        ((16.0, 0.0), "pitch_mm"), ((16.0, "1.5"), "pitch_mm"),
+                                        ((10 ** 400, 1.5), "major_mm"), ((16.0, -10 ** 400), "pitch_mm"),
+                                        ((True, 1.5), "major_mm"), ((16.0, 1.5, "no"), "male"),
+                                        ((16.0, 1.5, 1), "male"), ((16.0, 1.5, True, "yes"), "tapered")])
 
 
 def test_identify_rejects_bad_numbers(args, name):
-    with pytest.raises(ValueError, match=name):
+    # Source: stated behaviour: a bad reading is refused naming the argument ("male": "no" is not a male thread).
+    with pytest.raises(ValueError, match=f"^{name}: "):
         identify(*args)
 
 
@@ -153,10 +157,13 @@ def test_parse_length(text, mm):
     assert parse_length(text) == pytest.approx(mm, abs=1e-9)
 
 
-@pytest.mark.parametrize("text", ["15.9", "mm", "abc", "0mm", "-3mm", "1/0in", "15.9 furlongs", ""])
+@pytest.mark.parametrize("text", ["15.9", "mm", "abc", "0mm", "-3mm", "1/0in", "15.9 furlongs", "",
+                                  "9" * 400 + "mm", "1/" + "9" * 400 + "in", "0." + "0" * 400 + "1mm", "15,9mm"])
 def test_parse_length_rejects(text):
-    with pytest.raises(ValueError):
+    # Source: stated behaviour: text that is no caliper reading is refused in one line (never OverflowError).
+    with pytest.raises(ValueError) as info:
         parse_length(text)
+    assert "\n" not in str(info.value) and len(str(info.value)) < 120
 
 
 @pytest.mark.parametrize("text, mm", [("18tpi", IN / 18), ("18 TPI", IN / 18), ("11.5tpi", IN / 11.5),
@@ -167,10 +174,13 @@ def test_parse_pitch(text, mm):
     assert parse_pitch(text) == pytest.approx(mm, abs=1e-12)
 
 
-@pytest.mark.parametrize("text", ["18", "1.5", "tpi", "0tpi", "x mm"])
+@pytest.mark.parametrize("text", ["18", "1.5", "tpi", "0tpi", "x mm", "9" * 400 + "tpi", "9" * 400 + "mm",
+                                  "0." + "0" * 400 + "1tpi", "1,5mm"])
 def test_parse_pitch_rejects(text):
-    with pytest.raises(ValueError):
+    # Source: stated behaviour: text that is no pitch is refused in one line (never OverflowError or ZeroDivisionError).
+    with pytest.raises(ValueError) as info:
         parse_pitch(text)
+    assert "\n" not in str(info.value) and len(str(info.value)) < 120
 
 
 # -- adapter planner ---------------------------------------------------------------
@@ -226,14 +236,21 @@ def test_one_adapter_takes_the_weaker_rating_and_smaller_bore():
     rows = ends()
     stud = [e for e in rows if e["family"] == "metric-oring-port" and e["thread"] == "M16x1.5"][0]
     jic = [e for e in rows if e["family"] == "jic-37" and e["dash"] == 6][0]
+    # Source: stated rule: an adapter is rated as its weaker end and passes its smaller bore.
     assert a["working_bar"] == min(stud["working_bar"], jic["working_bar"])
     assert a["bore_mm"] == min(stud["bore_mm"], jic["bore_mm"])
+    # Source: calc/data/fittings.json (from memory): the ISO 6149-2 M16x1.5 stud 250 bar (the lower of two recalled
+    # figures) under the SAE J514 -6 end's 310.3 bar; the -6 end's 7.1 mm bore (typical of steel adapters) under
+    # the stud's 9.0 mm.
+    assert (stud["working_bar"], jic["working_bar"], a["working_bar"]) == (250.0, 310.3, 250.0)
+    assert (stud["bore_mm"], jic["bore_mm"], a["bore_mm"]) == (9.0, 7.1, 7.1)
     assert a["from"]["thread"] == "M16x1.5" and a["to"]["thread"] == "9/16-18 UNF"
     assert a["source"]
 
 
 def test_unrated_port_side_gives_no_rating():
-    # 5/8-18 UNF is not a SAE J1926 port size in the tables: no rating is invented
+    # Source: stated rule (no rating is invented): 5/8-18 UNF is not a SAE J1926 port size in the tables
+    # (calc/data/fittings.json lists the J1926 ports from memory).
     p = plan_adapters({"thread": "5/8-18 UNF", "seal": "oring-boss"}, {"family": "jic-37", "dash": 6})
     assert p["ok"] and p["adapters"][0]["working_bar"] is None and "maker" in p["message"]
     assert "working_bar" not in adapter_parts(p)[0] and "family" not in adapter_parts(p)[0]

@@ -1,7 +1,6 @@
 // Saved jobs: autosave to localStorage, save to a .json file, open from a file.
 export const STORE_KEY = "linesmith.job.v1";
 export const UNITS_KEY = "linesmith.units";
-export const MAX_FILE_BYTES = 1_000_000;
 
 export function autosave(job) {
   try { localStorage.setItem(STORE_KEY, JSON.stringify(job)); return true; } catch { return false; }
@@ -28,22 +27,16 @@ export function saveFile(job) {
   setTimeout(() => URL.revokeObjectURL(a.href), 1000);
 }
 
-// Read and check a job file before the engine sees it. Returns {job} or {error}.
-export async function readJobFile(file, version) {
-  if (file.size > MAX_FILE_BYTES) {
-    return { error: `${file.name} is ${(file.size / 1e6).toFixed(1)} MB; a job file must be under 1 MB.` };
+// A job file's bytes for the engine, in base64: the engine reads them as the command line does
+// (calc.edges.jobfile: size, UTF-8 with or without a byte-order mark, JSON, a job object), so the
+// page accepts and refuses exactly what `python -m calc evaluate FILE` does, in the same words.
+// Like the command line, only the first maxBytes + 1 bytes are read. Returns {base64} or {error}.
+export async function readJobFile(file, maxBytes) {
+  let bytes;
+  try { bytes = new Uint8Array(await file.slice(0, maxBytes + 1).arrayBuffer()); } catch (e) {
+    return { error: `${file.name} could not be read (${e.message}).` };
   }
-  let text;
-  try { text = await file.text(); } catch (e) { return { error: `${file.name} could not be read (${e.message}).` }; }
-  // A UTF-8 byte-order mark (written by some editors) is not JSON: drop it first.
-  if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-  let job;
-  try { job = JSON.parse(text); } catch (e) { return { error: `${file.name} is not valid JSON: ${e.message}.` }; }
-  if (!job || typeof job !== "object" || Array.isArray(job)) {
-    return { error: `${file.name} does not hold a job: the file must be a JSON object.` };
-  }
-  if (job.version !== version) {
-    return { error: `${file.name} is a job file of version ${JSON.stringify(job.version ?? "(none)")}; this page reads version ${version}.` };
-  }
-  return { job };
+  let binary = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) binary += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return { base64: btoa(binary) };
 }
