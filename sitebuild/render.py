@@ -22,10 +22,11 @@ def engine_page_model() -> dict:
     from calc.edges.units import UNITS
     from calc.model.job import describe_job
     from calc.model.result import describe_result
+    from calc.data.tables import starting_job
 
     return {"model": describe_job(), "result_model": describe_result(),
             "units": {k: list(v) for k, v in UNITS.items()}, "cautions": list(CAUTIONS),
-            "limits": {"job_file_max_bytes": MAX_JOB_FILE_BYTES}}
+            "limits": {"job_file_max_bytes": MAX_JOB_FILE_BYTES}, "new_job": starting_job()}
 
 
 def load_demos() -> list[dict]:

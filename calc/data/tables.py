@@ -22,7 +22,7 @@ from .frozen import FrozenDict, freeze
 
 __all__ = ["load", "hose_classes", "find_class", "typical_hose_walls", "tube_materials", "fitting_families",
            "seals", "threads", "ends", "find_thread", "fluid_presets", "custom_fluid_defaults", "size_row",
-           "end_families", "seal_words", "port_words", "family_rating"]
+           "end_families", "seal_words", "port_words", "family_rating", "starting_job"]
 
 
 @lru_cache(maxsize=None)
@@ -236,3 +236,15 @@ def seal_words() -> FrozenDict:
 def port_words() -> FrozenDict:
     """What a port of each seal type is, in words."""
     return load("threads.json")["port_words"]
+
+
+def starting_job() -> dict:
+    """A new job's starting point: one pressure, one return and one feed line of typical parts, and the
+    pump and gear left empty for the user to fill in (their required fields are then named as missing).
+
+    Examples
+    --------
+    >>> [line["role"] for line in starting_job()["lines"]]
+    ['pressure', 'return', 'feed']
+    """
+    return json.loads((resources.files(__package__) / "templates" / "new-job.json").read_text(encoding="utf-8"))

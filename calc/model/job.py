@@ -275,9 +275,9 @@ PUMP = Record("pump", "Pump and drive", (
 GEAR = Record("gear", "Steering gear", (
     Field("neutral_drop_bar", "Valve drop at neutral", unit="pressure_bar", default=REQUIRED, ge=0, le=100,
           help="Pressure drop across the open-centre valve with no steering input, at the stated flow."),
-    Field("at_flow_lpm", "At flow", unit="flow_lpm", default=REQUIRED, ge=0.5, le=500,
+    Field("at_flow_lpm", "Flow for the neutral drop", unit="flow_lpm", default=REQUIRED, ge=0.5, le=500,
           help="Flow at which the neutral drop was measured."),
-    Field("at_temp_c", "At fluid temperature", unit="temp_c", default=80.0, ge=-50, le=200,
+    Field("at_temp_c", "Fluid temperature for the neutral drop", unit="temp_c", default=80.0, ge=-50, le=200,
           help="Fluid temperature at which the neutral drop was measured (80 C, a hot running temperature, "
                "when not stated). Other flows and temperatures follow an orifice whose loss rises when the "
                "fluid is cold (two-constant form fitted to this point)."),

@@ -4,9 +4,13 @@
 import { clone, el, readJSON, setPath } from "./js/util.js";
 import { getSystem, setSystem, unitLabel } from "./js/units.js";
 import { assignStaticPaths, fillAll, initForm, localErrors, refreshAssemblyNotes, refreshDashes, resetPending, showErrors } from "./js/form.js";
-import { renderPlots, renderProblems, renderResult, setCautions } from "./js/results.js";
+import { compareBlock, renderPlots, renderProblems, renderResult, setCautions } from "./js/results.js";
 import { renderSheet } from "./js/sheet.js";
-import { autosave, readJobFile, restore, saveFile, UNITS_KEY } from "./js/storage.js";
+import { readJobFile, saveFile, UNITS_KEY } from "./js/storage.js";
+import { backup, backupJobs, createJob, deleteJob, duplicateJob, listJobs, migrateOldAutosave, openId, readJob,
+  saveJob, setOpen, watchOtherTabs } from "./js/jobs.js";
+import { makeHistory } from "./js/history.js";
+import { followEdit, initWorkbench, lineSummaries, renderNav } from "./js/workbench.js";
 
 const body = document.body;
 const statusText = document.getElementById("status-text");
@@ -22,6 +26,8 @@ setCautions(readJSON("linesmith-cautions"));
 
 const state = {
   job: null,
+  jobId: null,       // the job's id in this browser's list (js/jobs.js)
+  otherTab: null,    // another tab's newer save of this job, while the user has not chosen
   rev: 0,            // bumped on every edit of the job
   result: null,      // last result that computed
   resultRev: -1,
@@ -165,41 +171,86 @@ function show() {
   showErrors(state.errors);
   renderProblems(state.errors, localErrors(), state.fault);
   if (state.result) {
-    renderResult(state.result, { applyEdits });
+    renderResult(state.result, { applyEdits, applyCandidate });
     const sweep = state.sweep && state.sweep.rev === state.resultRev ? state.sweep : null;
     renderPlots(state.result, sweep);
     renderSheet(state.resultJob, state.result);
     refreshDashes();
     refreshAssemblyNotes();
+    followEdit();
+    showCompare();
   }
+  lineSummaries(state.resultRev === state.rev ? state.result : null);
   if (state.result || state.errors.length) resultsSection.hidden = false;
 }
+
+// Autosave into this job's place in the list; paused while another tab's save waits for a choice.
+function autosave() {
+  if (state.otherTab || !state.jobId) return;
+  if (!saveJob(state.jobId, state.job)) showFileMessage("This browser did not keep the last edit (its storage is full or off); save a job file to keep it.");
+}
+
+const history = makeHistory(({ canUndo, canRedo }) => {
+  document.getElementById("edit-undo").disabled = !canUndo;
+  document.getElementById("edit-redo").disabled = !canRedo;
+});
 
 function changed({ structural, recalc: needsCalc }) {
   if (needsCalc) {
     state.rev += 1;
-    autosave(state.job);
+    history.record(state.job);
+    autosave();
     schedule();
   } else {
     renderProblems(state.errors, localErrors(), state.fault);
   }
   body.dataset.jobRev = String(state.rev);
   if (structural) body.dataset.structure = String(Number(body.dataset.structure || 0) + 1);
+  renderNav(state.job); // line names are links in the section list
 }
 
 // Make the engine's edits (a check's fix or a candidate's apply list) on the job, in order. The
 // edits' paths index the user's own lists; their values are in engine units. One step can be undone.
 function applyEdits(edits, words) {
-  const before = clone(state.job);
   for (const e of edits) setPath(state.job, e.path, clone(e.value));
   loadJob(state.job);
+  history.record(state.job);
   const undo = el("button", { type: "button", class: "undo-edit" }, "Undo");
-  undo.addEventListener("click", () => {
-    loadJob(before);
-    showFileMessage(`Undone: ${words}.`, true);
-  });
+  undo.addEventListener("click", stepBack);
   showFileMessage(`Done: ${words}.`, true);
   fileMessage.querySelector("p").append(" ", undo);
+}
+
+// A candidate applied: the line's figures before, and after once the engine has the new job.
+function lineFigures(result, li) {
+  const line = result && result.lines && result.lines[li];
+  if (!line) return { row: null, margin: null };
+  return { row: (line.candidates || []).find((c) => c.current) || null, margin: line.rating ? line.rating.margin : null };
+}
+
+function applyCandidate(edits, words, li) {
+  const before = lineFigures(state.result, li);
+  applyEdits(edits, words);
+  state.compare = { li, before, rev: state.rev };
+}
+
+function showCompare() {
+  const c = state.compare;
+  if (!c || state.resultRev !== state.rev) return;
+  state.compare = null;
+  if (c.rev !== state.rev || fileMessage.hidden) return; // another edit came between
+  fileMessage.querySelector("ul")?.remove();
+  fileMessage.append(compareBlock(c.before, lineFigures(state.result, c.li)));
+}
+
+function stepBack() {
+  const job = history.undo();
+  if (job) { loadJob(job); showFileMessage("Undone: the last edit.", true); }
+}
+
+function stepForward() {
+  const job = history.redo();
+  if (job) { loadJob(job); showFileMessage("Redone: the edit that was undone.", true); }
 }
 
 function loadJob(job) {
@@ -208,8 +259,112 @@ function loadJob(job) {
   state.sweep = null;
   resetPending();
   fillAll();
-  autosave(state.job);
+  renderNav(job);
+  document.getElementById("job-name").textContent = job.name || "(unnamed)";
+  autosave();
   schedule(0);
+}
+
+// Open a job of the list, or a new one (a demo, a file, the template): it gets its own place in
+// the list and never overwrites another.
+function openJob(id) {
+  const job = readJob(id);
+  if (!job) return false;
+  state.jobId = id;
+  state.otherTab = null;
+  setOpen(id);
+  // another job's results must not stand under this one while it has none of its own
+  state.result = null;
+  state.resultJob = null;
+  for (const where of ["summary", "line-results", "thermal-results", "plots", "results-body", "warnings", "sheet"]) {
+    document.getElementById(where).replaceChildren();
+  }
+  loadJob(job);
+  history.reset(job);
+  renderJobsPanel();
+  return true;
+}
+
+function openAsNew(job, words) {
+  const id = createJob(job);
+  if (!id) { showFileMessage("This browser cannot keep another job (its storage is full or off); save a job file instead."); return; }
+  openJob(id);
+  if (words) showFileMessage(words, true);
+}
+
+function newJob() {
+  openAsNew(clone(readJSON("linesmith-new-job")),
+    "A new job from the three-line template. Fill in the pump (displacement, flow-control setting, relief setting) and the steering gear; results come when they are given.");
+}
+
+function onOtherTab(theirs) {
+  state.otherTab = theirs;
+  showFileMessage("This job was changed in another tab. Autosave here is paused until you choose.", false);
+  const take = el("button", { type: "button", class: "tab-take" }, "Use the other tab's version");
+  const keep = el("button", { type: "button", class: "tab-keep" }, "Keep this tab's version");
+  take.addEventListener("click", () => { state.otherTab = null; loadJob(theirs); history.record(theirs); showFileMessage("Now showing the other tab's version.", true); });
+  keep.addEventListener("click", () => { state.otherTab = null; autosave(); showFileMessage("Kept this tab's version; it is saved over the other.", true); });
+  fileMessage.querySelector("p").append(" ", take, " ", keep);
+}
+
+function renderJobsPanel() {
+  const rows = document.getElementById("jobs-rows");
+  rows.replaceChildren();
+  for (const entry of listJobs()) {
+    const when = entry.changed ? new Date(entry.changed).toLocaleString() : "";
+    const open = el("button", { type: "button", "data-job-open": entry.id }, entry.id === state.jobId ? "Open now" : "Open");
+    open.disabled = entry.id === state.jobId;
+    const dup = el("button", { type: "button", "data-job-duplicate": entry.id }, "Duplicate");
+    const del = el("button", { type: "button", "data-job-delete": entry.id }, "Delete");
+    del.disabled = entry.id === state.jobId;
+    open.addEventListener("click", () => openJob(entry.id));
+    dup.addEventListener("click", () => { duplicateJob(entry.id); renderJobsPanel(); });
+    del.addEventListener("click", () => {
+      if (!window.confirm(`Delete the job "${entry.name}" from this browser? Save a job file first if you want to keep it.`)) return;
+      deleteJob(entry.id);
+      renderJobsPanel();
+    });
+    rows.append(el("tr", { "data-job-row": entry.id }, el("td", {}, entry.name), el("td", {}, when), el("td", {}, open, " ", dup, " ", del)));
+  }
+}
+
+async function restoreBackup(file) {
+  let data = null;
+  try { data = JSON.parse(await file.text()); } catch { data = null; }
+  const jobs = backupJobs(data);
+  if (!jobs) { showFileMessage(`Not added: ${file.name} is not a backup of Linesmith jobs. Your jobs are unchanged.`); return; }
+  let added = 0;
+  for (const job of jobs) if (createJob(job)) added += 1;
+  renderJobsPanel();
+  showFileMessage(`Added ${added} of ${jobs.length} jobs from ${file.name}; your other jobs are unchanged.`, added === jobs.length);
+}
+
+function jobsToolbar() {
+  const panel = document.getElementById("jobs-panel");
+  const toggle = document.getElementById("jobs-open");
+  const show = (open) => { panel.hidden = !open; toggle.setAttribute("aria-expanded", String(open)); if (open) renderJobsPanel(); };
+  toggle.addEventListener("click", () => show(panel.hidden));
+  document.getElementById("jobs-close").addEventListener("click", () => show(false));
+  document.getElementById("job-new").addEventListener("click", newJob);
+  document.getElementById("edit-undo").addEventListener("click", stepBack);
+  document.getElementById("edit-redo").addEventListener("click", stepForward);
+  document.addEventListener("keydown", (event) => {
+    if (!(event.ctrlKey || event.metaKey) || event.key.toLowerCase() !== "z") return;
+    if (event.target.closest && event.target.closest("input, textarea, select")) return; // the field's own undo
+    event.preventDefault();
+    if (event.shiftKey) stepForward(); else stepBack();
+  });
+  document.getElementById("jobs-backup").addEventListener("click", () => {
+    const data = backup();
+    saveFile({ ...data, name: `linesmith-backup-${new Date().toISOString().slice(0, 10)}` });
+  });
+  const restoreInput = document.getElementById("jobs-restore");
+  restoreInput.addEventListener("change", () => {
+    const file = restoreInput.files && restoreInput.files[0];
+    restoreInput.value = "";
+    if (file) restoreBackup(file);
+  });
+  watchOtherTabs(() => state.jobId, onOtherTab);
 }
 
 // ---------------------------------------------------------------- toolbar
@@ -230,8 +385,7 @@ function toolbar() {
   }
   document.getElementById("demo-load").addEventListener("click", () => {
     const i = Number(document.getElementById("demo-select").value);
-    loadJob(clone(demos[i].job));
-    showFileMessage(`Loaded the demo job "${demos[i].job.name || demos[i].file}".`, true);
+    openAsNew(clone(demos[i].job), `Opened the demo job "${demos[i].job.name || demos[i].file}" as a new job; your other jobs are unchanged.`);
   });
   document.getElementById("job-save").addEventListener("click", () => saveFile(state.job));
   document.getElementById("sheet-print").addEventListener("click", () => window.print());
@@ -250,8 +404,7 @@ function toolbar() {
         (reply.errors || []).map((e) => (e.path ? `${e.path}: ${e.message}` : e.message)));
       return;
     }
-    loadJob(reply.job);
-    showFileMessage(`Opened ${file.name}.`, true);
+    openAsNew(reply.job, `Opened ${file.name} as a new job in this browser's list.`);
   });
   // thread identification
   document.getElementById("thr-go").addEventListener("click", identifyThread);
@@ -388,13 +541,21 @@ function startEngine() {
   if (saved === "us") { setSystem("us"); body.dataset.units = "us"; }
   for (const r of document.querySelectorAll('input[name="units"]')) r.checked = r.value === getSystem();
 
-  const restored = restore();
-  state.job = restored || clone(demos.length ? demos[0].job : readJSON("linesmith-demo"));
-  state.restored = Boolean(restored);
+  migrateOldAutosave();
+  let id = openId() || (listJobs()[0] || {}).id || null;
+  state.restored = Boolean(id);
+  if (!id) id = createJob(clone(demos.length ? demos[0].job : readJSON("linesmith-demo")));
+  state.jobId = id;
+  if (id) setOpen(id);
+  state.job = (id && readJob(id)) || clone(demos.length ? demos[0].job : readJSON("linesmith-demo"));
+  history.reset(state.job);
   assignStaticPaths();
   initForm(model, state, changed);
   fillAll();
   toolbar();
+  jobsToolbar();
+  renderNav(state.job);
+  initWorkbench();
   watchUpdates();
   performance.mark("linesmith-form-built");
 }

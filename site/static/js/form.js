@@ -4,11 +4,13 @@
 import { clone, deletePath, el, getPath, parsePath, setPath } from "./util.js";
 import { fmt, fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
 import { resultPart } from "./declared.js";
+import { outOfRange, readNumber } from "./numbers.js";
 
 let model = null;       // describe_job()
 let state = null;       // { job } owned by app.js
 let onChange = () => {};
 const pendingText = new Map(); // path -> text the user typed that is not yet a valid value
+const pendingWhy = new Map();  // path -> why it was not taken, in words
 const formEl = () => document.getElementById("job-form");
 
 export function initForm(theModel, theState, changed) {
@@ -108,11 +110,11 @@ function fillInput(input) {
   } else if (kind === "number" || kind === "integer") {
     input.value = typeof value === "number" ? inputText(value, unit) : "";
     const preset = presetValue(path);
-    input.placeholder = preset !== undefined ? `${inputText(preset, unit)} (preset)`
-      : def !== undefined && def !== "" ? inputText(Number(def), unit) : "";
+    input.placeholder = preset !== undefined ? `preset: ${inputText(preset, unit)}`
+      : def !== undefined && def !== "" ? `default: ${inputText(Number(def), unit)}` : "";
   } else {
     input.value = typeof value === "string" ? value : "";
-    input.placeholder = def ?? "";
+    input.placeholder = def ? `default: ${def}` : "";
   }
   updateDash(input);
 }
@@ -204,7 +206,7 @@ function titleFor(itemKey, item, index) {
   if (itemKey === "bend") return `Bend ${index + 1}`;
   if (itemKey === "part") {
     const rec = recordOf("parts", item.kind);
-    return `Part ${index}: ${rec ? rec.label : item.kind}`;
+    return `Part ${index + 1}: ${rec ? rec.label : item.kind}`;
   }
   return `${index + 1}`;
 }
@@ -258,15 +260,12 @@ function parseInput(input) {
     }
     return points.length ? { value: points } : { empty: true };
   }
-  const normal = text.replace(",", ".");
-  if (!/^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$/.test(normal)) {
-    return { error: `"${text}" is not a number; the last valid value is kept` };
-  }
-  let value = fromShow(Number(normal), unit);
-  if (kind === "integer") {
-    if (!Number.isInteger(Number(normal))) return { error: `"${text}" is not a whole number; the last valid value is kept` };
-    value = Number(normal);
-  }
+  const read = readNumber(text);
+  if (read.error) return { error: `${read.error}; the last valid value is kept` };
+  if (kind === "integer" && !Number.isInteger(read.value)) return { error: `"${text}" is not a whole number; the last valid value is kept` };
+  const value = kind === "integer" ? read.value : fromShow(read.value, unit);
+  const range = outOfRange(value, input, (limit) => `${inputText(limit, unit)} ${unitLabel(unit)}`.trim());
+  if (range) return { error: `${text} was not taken: it ${range}; the last valid value is kept` };
   return { value };
 }
 
@@ -280,12 +279,14 @@ function onInput(event) {
   const errorP = input.closest(".fld")?.querySelector(".fld-error");
   if (parsed.error) {
     pendingText.set(path, input.value);
+    pendingWhy.set(path, parsed.error);
     if (errorP) { errorP.textContent = parsed.error; errorP.hidden = false; errorP.dataset.local = "1"; }
     input.setAttribute("aria-invalid", "true");
     onChange({ localErrors: localErrors(), structural: false, recalc: false });
     return;
   }
   pendingText.delete(path);
+  pendingWhy.delete(path);
   if (errorP && errorP.dataset.local) { errorP.hidden = true; errorP.textContent = ""; delete errorP.dataset.local; }
   input.removeAttribute("aria-invalid");
   materialise(path);
@@ -305,25 +306,33 @@ function onInput(event) {
   onChange({ localErrors: localErrors(), structural: false, recalc: true });
 }
 
-// The label a field shows on the form, for messages about it.
+// A field in words for messages: its label, then the items it sits in as the form titles them
+// ("Bore, in Part 2: Hose of Line 1: pump to gear"), counting from 1 as the form does.
 function shownLabel(path) {
   const target = findByPath(path);
-  const label = target && target.closest(".fld")?.querySelector("label");
-  return label ? label.textContent.trim() : path;
+  const label = target && target.closest(".fld")?.querySelector(".fld-label");
+  if (!label) return "this field";
+  const places = [];
+  for (let li = target.closest("li.item"); li; li = li.parentElement.closest("li.item")) {
+    const title = li.querySelector(":scope > .item-head .item-title, .item-title");
+    if (title) places.push(title.textContent.trim());
+  }
+  return places.length ? `${label.textContent.trim()}, in ${places.join(" of ")}` : label.textContent.trim();
 }
 
 export function localErrors() {
   return [...pendingText.keys()].map((path) => ({ path, label: shownLabel(path),
-    message: "the text typed here is not a valid value; the last valid value is kept" }));
+    message: pendingWhy.get(path) || "the text typed here is not a valid value; the last valid value is kept" }));
 }
 
 export function resetPending() {
   pendingText.clear();
+  pendingWhy.clear();
   for (const p of formEl().querySelectorAll(".fld-error[data-local]")) { p.hidden = true; p.textContent = ""; delete p.dataset.local; }
 }
 
 function clearPending(prefix) {
-  for (const key of [...pendingText.keys()]) if (key.startsWith(prefix)) pendingText.delete(key);
+  for (const key of [...pendingText.keys()]) if (key.startsWith(prefix)) { pendingText.delete(key); pendingWhy.delete(key); }
 }
 
 function newItem(itemKey, list, kind) {
@@ -371,6 +380,11 @@ function onClick(event) {
         err.hidden = false;
         return;
       }
+      const item = list[i];
+      const holdsData = item && typeof item === "object" && Object.keys(item).some((k) => k !== "kind");
+      const title = li.querySelector(".item-title")?.textContent.trim() || "this entry";
+      if (holdsData && ["lines", "parts"].includes(holder.dataset.list)
+          && !window.confirm(`Remove ${title}? What it holds goes with it (Undo brings it back).`)) return;
       list.splice(i, 1);
       if (list.length === 0 && holder.dataset.list === "bends") deletePath(state.job, listPath);
     } else if (button.classList.contains("move-up") && i > 0) {

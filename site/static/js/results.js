@@ -167,7 +167,7 @@ function candidatesBlock(cands, li, actions) {
     if (c.current) act.append(el("span", { class: "small" }, "the line's own"));
     else if (actions) {
       const b = el("button", { type: "button", class: "cand-apply", "data-candidate-apply": String(i) }, "Use this hose");
-      b.addEventListener("click", () => actions.applyEdits(c.apply, `Use ${c.class} -${c.dash} on line ${li + 1}`));
+      b.addEventListener("click", () => (actions.applyCandidate || actions.applyEdits)(c.apply, `Use ${c.class} -${c.dash} on line ${li + 1}`, li));
       act.append(b);
     }
     const reasons = el("details", { class: "why" }, el("summary", {}, why.length ? why.join("; ") : (c.verdict === "ok" ? "passes" : "cautions")));
@@ -340,7 +340,9 @@ export function renderProblems(errors, localErrors, fault = null) {
       + "your next edit asks the engine again. If it keeps failing, save the job file and reload the page."));
   }
   if (!all.length) return;
-  box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; the results below are for the last job that computed:`));
+  const shown = document.getElementById("line-results").childElementCount > 0;
+  box.append(el("p", { class: "problems-title" }, `${all.length} problem${all.length > 1 ? "s" : ""} in the job; `
+    + (shown ? "the results below are for the last job that computed:" : "results come once they are put right:")));
   const ul = el("ul");
   for (const e of all) ul.append(el("li", { "data-problem-path": e.path || "" }, e.label || e.path ? `${e.label || e.path}: ${e.message}` : e.message));
   box.append(ul);
@@ -394,4 +396,25 @@ export function renderPlots(result, sweep) {
     grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, "Fluid temperature at full lock: this engine build gives no full-lock curve.")));
   }
   box.append(grid);
+}
+
+// Before and after a candidate was applied: the engine's figures for the line's own hose row
+// (candidates[].current) and its rating margin, from the result before and the result after.
+export function compareBlock(before, after) {
+  const C = "lines[].candidates[].";
+  const rows = [[`${C}pressure_drop_bar`, (x) => x.row && x.row.pressure_drop_bar, [2, 1]],
+    [`${C}velocity_max_m_s`, (x) => x.row && x.row.velocity_max_m_s],
+    [`${C}working_bar`, (x) => x.row && x.row.working_bar, [0, 0]],
+    ["lines[].rating.margin", (x) => x.margin]];
+  const table = el("table", { class: "compare" });
+  table.append(el("thead", {}, el("tr", {}, el("th", { scope: "col" }, "Line figure"), el("th", { scope: "col" }, "Before"), el("th", { scope: "col" }, "After"))));
+  const tb = el("tbody");
+  for (const [path, get, decimals] of rows) {
+    const kind = declared(path).unit;
+    tb.append(el("tr", { "data-compare": path.split(".").pop() }, el("th", { scope: "row" }, heading(path)),
+      el("td", { class: "num" }, fmt(get(before), kind, decimals)), el("td", { class: "num" }, fmt(get(after), kind, decimals))));
+  }
+  table.append(tb);
+  return el("div", { class: "compare-wrap" }, table,
+    el("p", { class: "small" }, "Mass is not compared: the hose tables give no mass per metre."));
 }

@@ -57,6 +57,9 @@ export function fmtDiff(value, kind, decimals) {
 // Text for an input: the converted value to 6 significant digits (display only).
 export function inputText(value, kind) {
   if (typeof value !== "number" || !Number.isFinite(value)) return "";
+  // Metric values show as stored (what the user typed); a US conversion is rounded to the
+  // decimals its kind shows in US units (15 mm is 0.591 in, not 0.590551 in).
   const shown = toShow(value, kind);
-  return String(Number(shown.toPrecision(6)));
+  if (shown === value || !DECIMALS[kind]) return String(Number(shown.toPrecision(shown === value ? 6 : 4)));
+  return String(Number(shown.toFixed(DECIMALS[kind][1])));
 }
