@@ -6,7 +6,7 @@ import { toShow, unitLabel, getSystem } from "./units.js";
 
 export const SHOP_PRECISION = {
   cut_length: { label: "Cut and assembly lengths", kind: "length_mm", metric: { step: 1 }, us: { fraction: 16 }, mode: "up" },
-  route_length: { label: "Route lengths and bend radii", kind: "length_mm", metric: { step: 1 }, us: { fraction: 16 }, mode: "nearest" },
+  route_length: { label: "Route lengths, bend radii, slack, cut-off allowances", kind: "length_mm", metric: { step: 1 }, us: { fraction: 16 }, mode: "nearest" },
   tube_size: { label: "Tube outside diameters and walls", kind: "length_mm", metric: { step: 0.01 }, us: { step: 0.001 }, mode: "nearest" },
   bore: { label: "Bores", kind: "length_mm", metric: { step: 0.1 }, us: { step: 0.001 }, mode: "nearest" },
   order_length: { label: "Hose and tube to order", kind: "length_m", metric: { step: 0.01 }, us: { step: 0.1 }, mode: "up" },
