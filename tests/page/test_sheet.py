@@ -312,6 +312,7 @@ def test_plot_readout_works_with_a_finger_on_a_phone_in_us_units(browser, site):
         pg.screenshot(path=str(SHOTS / "plot-readout-phone-390.png"))
         fig = pg.locator('[data-line-card="0"] [data-sketch="0"]')
         fig.scroll_into_view_if_needed()
+        assert fig.bounding_box()["width"] <= 390  # the three views stack inside a phone's width
         pg.screenshot(path=str(SHOTS / "sketch-phone-390.png"))
         assert not pg.errors, pg.errors
     finally:
