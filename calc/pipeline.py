@@ -19,6 +19,8 @@ from .stages.thermal import thermal_stage
 from .system.circuit import Circuit
 from .system.line import part_bore_mm
 from .system.naming import part_ref
+from .system.order import order_of
+from .system.sketch import sketch_of
 
 __all__ = ["evaluate", "sweep", "drop_curve", "run", "METHODS", "DROP_CURVE_STEPS"]
 
@@ -62,7 +64,7 @@ def _part_row(k: int, p) -> dict:
             "size_mm": size, "dash": dash, "dash_exact": exact}
 
 
-def _line(ln, stages, j: int) -> dict:
+def _line(ln, stages, j: int, spec) -> dict:
     ports, assembly, circuit, lines, selection = stages
     drop = circuit.largest_drops[j]
     a = assembly.assemblies[j]
@@ -70,7 +72,8 @@ def _line(ln, stages, j: int) -> dict:
             "pressure_drop_max_bar": drop["bar"], "pressure_drop_max_at": drop["at"], "checks": lines.checks[j],
             "ports": {"from_port": ports.plans[j]["from_port"], "to_port": ports.plans[j]["to_port"]},
             "parts": [_part_row(k, p) for k, p in enumerate(a.parts)], "assembly": assembly_record(a),
-            "rating": lines.ratings[j], "candidates": selection.candidates[j]}
+            "rating": lines.ratings[j], "sketch": sketch_of(spec, lines.ratings[j]["parts"]),
+            "candidates": selection.candidates[j]}
 
 
 def run(job) -> dict:
@@ -92,7 +95,7 @@ def run(job) -> dict:
     selection = selection_stage(job, ports, circuit, last_feed_line(job))  # whole-assembly hose candidates
     thermal = thermal_stage(job, circuit, lines.ratings)  # heat, steady temperature, full lock, cooler
     stages = (ports, assembly, circuit, lines, selection)
-    out_lines = [_line(ln, stages, j) for j, ln in enumerate(circuit.model.lines)]
+    out_lines = [_line(ln, stages, j, job.lines[j].spec) for j, ln in enumerate(circuit.model.lines)]
     warnings = [*job.warnings, *circuit.validity_warnings, *lines.warnings]
     return {
         "ok": True,
@@ -105,6 +108,7 @@ def run(job) -> dict:
         "warnings": _worded(warnings, job.raw),
         "methods": list(METHODS),
         "pump_curve": circuit.pump_curve,
+        "order": order_of(assembly.built_parts, ports.plans),
     }
 
 

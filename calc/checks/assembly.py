@@ -9,6 +9,7 @@ from ..model.result import check
 from ..physics.sizes import dash_of_mm
 from ..system.adapters import mating_problem
 from ..system.naming import part_ref
+from ..system.sketch import limiting_bend_radius
 from .case import LineCase, fix, label_for, part_path, said
 
 __all__ = ["length_checks", "route_check", "bend_checks", "consistency_checks", "port_checks"]
@@ -70,16 +71,15 @@ def route_check(case: LineCase) -> dict | None:
     route = case.assembly.route
     if route is None:
         return None
-    known = [r for r in case.part_ratings if r["kind"] in ("hose", "tube") and r["min_bend_radius_mm"] is not None]
+    worst = limiting_bend_radius(case.part_ratings)
     tight = route["tightest_radius_mm"]
     desc = (f"the route is {route['length_mm']:.0f} mm through {len(case.spec['route_points_mm'])} points, "
             + (", ".join(f"{b['angle_deg']:.0f} deg at point {b['at_point'] + 1} (radius at most "
                          f"{b['max_radius_mm']:.0f} mm)" for b in route["bends"]) or "with no bends"))
     if tight is None:
         return check("route", "ok", desc)
-    if not known:
+    if worst is None:
         return check("route", "caution", desc + "; no minimum bend radius is known to compare with")
-    worst = max(known, key=lambda r: r["min_bend_radius_mm"])
     mbr = worst["min_bend_radius_mm"]
     if tight < mbr:
         at = min(route["bends"], key=lambda b: b["max_radius_mm"])["at_point"]

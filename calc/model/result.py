@@ -303,6 +303,37 @@ ASSEMBLY = (
     flag("typed_bends_ignored", "Typed bends not used", "Bends typed on the hose while route points give them."),
     rec("route", "Route", ROUTE, "From the measured route points; null without them.", nullable=True),
 )
+POINT = lst("", "Point", num("", "length_mm", "Coordinate"), "x, y, z.")
+SKETCH_BEND = (
+    cnt("at_point", "At point", "Position in the measured points, from 0."),
+    num("angle_deg", "angle_deg", "Angle turned"),
+    num("radius_mm", "length_mm", "Radius", "The largest radius the route leaves room for at this corner: the "
+                                            "one the hose takes."),
+    lst("corner_mm", "Corner", num("", "length_mm", "Coordinate"), "The measured corner point, x, y, z."),
+    lst("tangent_in_mm", "Bend starts", num("", "length_mm", "Coordinate"), "Where the arc leaves the incoming "
+                                                                             "straight, x, y, z."),
+    lst("tangent_out_mm", "Bend ends", num("", "length_mm", "Coordinate"), "Where the arc meets the outgoing "
+                                                                            "straight, x, y, z."),
+    Out("verdict", "verdict", "Verdict", help="fail: tighter than the minimum bend radius; caution: no minimum "
+                                              "known."),
+    sentence("message", "Bend", "The bend in words, with its radius and the minimum it is judged against."),
+)
+SKETCH = (
+    num("movement_mm", "length_mm", "Engine movement", "Total travel of the end on the engine."),
+    text("movement_axis", "Direction of engine movement", "x, y or z of the route points."),
+    text("engine_end", "End on the engine", "start or end."),
+    num("min_bend_radius_mm", "length_mm", "Minimum bend radius", "The largest of the line's hoses' and tubes' "
+                                                                  "known minimum bend radii.", True),
+    sentence("min_bend_radius_of", "Minimum bend radius of", "The part it belongs to.", True),
+    Out("verdict", "verdict", "Verdict", help="The worst of the bends at every position."),
+    lst("positions", "Positions", rec("", "Position", (
+        text("name", "Position", "at rest, or the engine moved one way or the other."),
+        num("offset_mm", "length_mm", "Moved by", "Signed, along the direction of engine movement."),
+        lst("points_mm", "Route points", POINT, "The measured points, the engine end moved."),
+        num("length_mm", "length_mm", "Route length"),
+        lst("bends", "Bends", rec("", "Bend", SKETCH_BEND)))),
+        "At rest, then with the end on the engine moved half the movement each way (none without movement)."),
+)
 CANDIDATE = (
     text("class", "Hose class"),
     cnt("dash", "Dash size"),
@@ -344,6 +375,8 @@ LINE = (
     lst("parts", "Parts as built", rec("", "Part", LINE_PART)),
     rec("assembly", "Hose assembly", ASSEMBLY, "The cut length, slack and bends, worked out once."),
     rec("rating", "Rating", RATING),
+    rec("sketch", "Route sketch", SKETCH, "The route drawn from the measured points; null without them.",
+        nullable=True),
     lst("candidates", "Hose candidates", rec("", "Candidate", CANDIDATE),
         "Each tabulated hose class around its smallest size that passes, built and checked as a whole "
         "assembly; passing ones first."),
@@ -416,6 +449,27 @@ PUMP_CURVE = (
         num("delivered_lpm", "flow_lpm", "Delivered flow")))),
 )
 
+_LINES_USED = lst("lines", "Used on lines", cnt("", "Line", "Position in the user's list of lines, from 0."))
+ORDER = (
+    lst("hoses", "Hose", rec("", "Hose", (
+        text("class", "Hose class", nullable=True), cnt("dash", "Dash size", nullable=True),
+        num("bore_mm", "length_mm", "Bore"),
+        num("total_mm", "length_mm", "Total length", "Cut lengths added up (assembly hoses at their worked-out "
+                                                      "cut length)."),
+        cnt("pieces", "Pieces"), _LINES_USED))),
+    lst("tubes", "Rigid tube", rec("", "Tube", (
+        text("material", "Material"), num("od_mm", "length_mm", "Outside diameter"),
+        num("wall_mm", "length_mm", "Wall thickness"), num("total_mm", "length_mm", "Total length"),
+        cnt("pieces", "Pieces"), _LINES_USED))),
+    lst("fittings", "Fittings", rec("", "Fitting", (
+        text("family", "Family", nullable=True), cnt("dash", "Size (dash)", nullable=True),
+        text("shape", "Shape"), num("bore_mm", "length_mm", "Bore"), cnt("count", "Count"), _LINES_USED))),
+    lst("adapters", "Adapters", rec("", "Adapter", (
+        sentence("name", "Adapter"), cnt("count", "Count"), _LINES_USED)), "The adapters the port plans add."),
+    lst("devices", "Coolers and series devices", rec("", "Device", (
+        flag("is_cooler", "Is a cooler"), cnt("count", "Count"), _LINES_USED))),
+)
+
 RESULT = rec("", "Result", (
     flag("ok", "Computed"),
     text("job_name", "Job"),
@@ -430,6 +484,7 @@ RESULT = rec("", "Result", (
                                                      sentence("message", "Warning")))),
     lst("methods", "Methods", sentence("", "Method")),
     rec("pump_curve", "Pump delivery", PUMP_CURVE, "For the plot of delivered flow against engine speed."),
+    rec("order", "Order list", ORDER, "What to buy to build every line as built."),
 ))
 
 

@@ -122,3 +122,68 @@ def route_geometry(points_mm: list) -> dict:
                   "largest radius = available straight / tan(turn/2), a segment between two corners shared "
                   "half and half",
     }
+
+
+def route_fillets(points_mm: list) -> list:
+    r"""Where each bend of a measured route starts and ends, with the route's largest radius at each corner.
+
+    Parameters
+    ----------
+    points_mm : list of [x, y, z]
+        Measured points along the path, [mm]; as ``route_geometry``.
+
+    Returns
+    -------
+    bends : list of dict
+        Per bend of ``route_geometry`` (same order): ``at_point``, ``angle_deg``, ``radius_mm`` (its
+        ``max_radius_mm``), ``corner_mm`` (the measured corner point), ``tangent_in_mm`` and
+        ``tangent_out_mm`` (where the arc leaves the incoming segment and meets the outgoing one, [mm]).
+
+    Notes
+    -----
+    A circular arc of radius R tangent to both segments of a corner turning by theta touches each
+    at the tangent length t = R tan(theta/2) from the corner: ``corner - t u_in`` and ``corner + t
+    u_out`` for the unit directions u of the segments. At the largest radius t is the straight length
+    available on the tighter side (see ``route_geometry``).
+
+    Examples
+    --------
+    A right angle with 100 mm legs: the 100 mm arc runs from the first point to the last.
+
+    >>> b = route_fillets([[0, 0, 0], [100, 0, 0], [100, 100, 0]])[0]
+    >>> [round(v, 9) for v in b["tangent_in_mm"]], [round(v, 9) for v in b["tangent_out_mm"]]
+    ([0.0, 0.0, 0.0], [100.0, 100.0, 0.0])
+    """
+    pts = [tuple(float(c) for c in p) for p in points_mm]
+    out = []
+    for b in route_geometry(points_mm)["bends"]:
+        k = b["at_point"]
+        corner = pts[k]
+        prev = next(p for p in reversed(pts[:k]) if _norm(_sub(corner, p)) > 1e-6)
+        nxt = next(p for p in pts[k + 1:] if _norm(_sub(p, corner)) > 1e-6)
+        u_in, u_out = _sub(corner, prev), _sub(nxt, corner)
+        n_in, n_out = _norm(u_in), _norm(u_out)
+        t = b["max_radius_mm"] * math.tan(math.radians(b["angle_deg"]) / 2.0)
+        out.append({"at_point": k, "angle_deg": b["angle_deg"], "radius_mm": b["max_radius_mm"],
+                    "corner_mm": list(corner),
+                    "tangent_in_mm": [corner[i] - t * u_in[i] / n_in for i in range(3)],
+                    "tangent_out_mm": [corner[i] + t * u_out[i] / n_out for i in range(3)]})
+    return out
+
+
+def moved_route(points_mm: list, end: str, axis: int, offset_mm: float) -> list:
+    """The route with one end point moved by ``offset_mm`` along coordinate ``axis`` (0, 1, 2 for x, y, z).
+
+    ``end`` is 'start' (the first point moves) or 'end' (the last); the other points stay, so the
+    segment next to the moving end stretches or shrinks: how a hose between an engine-mounted port and
+    a body-mounted one follows the engine on its mounts.
+
+    Examples
+    --------
+    >>> moved_route([[0, 0, 0], [300, 0, 0]], "end", 2, 10.0)
+    [[0.0, 0.0, 0.0], [300.0, 0.0, 10.0]]
+    """
+    pts = [[float(c) for c in p] for p in points_mm]
+    k = 0 if end == "start" else len(pts) - 1
+    pts[k][axis] += offset_mm
+    return pts

@@ -70,6 +70,7 @@ export function lineChart(opts) {
   axes.append(s("text", { x: 12, y: m.t + ph / 2, "text-anchor": "middle", class: "axis-label",
     transform: `rotate(-90 12 ${m.t + ph / 2})` }, opts.yLabel));
   svg.append(axes);
+  svg.__chart = { X, Y, m, pw, ph, x0, x1 };
   const legend = [];
   (opts.hlines || []).forEach((h) => {
     const g = s("g", { class: "hline" });
@@ -102,4 +103,61 @@ function fmtTick(v, ticks) {
   let dec = 0;
   while (dec < 4 && Math.abs(Math.round(step * 10 ** dec) - step * 10 ** dec) > 1e-6) dec += 1;
   return v.toFixed(dec);
+}
+
+// A plot with a readout of the values under the pointer or finger (pointer events, so mouse, pen and touch
+// alike; arrow keys step along the points): a cursor line on the plot and the values in words below it,
+// in the units the axes show, announced politely to screen readers.
+// opts as lineChart's, plus xName / yName (what the axes show), xUnit / yUnit (shown units), xDec / yDec.
+export function plotFigure(opts) {
+  const svg = lineChart(opts);
+  const fig = document.createElement("figure");
+  fig.className = "plot";
+  fig.append(svg);
+  const readout = document.createElement("p");
+  readout.className = "plot-readout";
+  readout.setAttribute("aria-live", "polite");
+  readout.dataset.readout = opts.id || "";
+  readout.textContent = "Point at the plot, or touch it, to read its values.";
+  fig.append(readout);
+  const c = svg.__chart;
+  if (!c) return fig;
+  const xs = [...new Set(opts.series.flatMap((se) => se.points.map((p) => p[0])))].sort((a, b) => a - b);
+  const cursor = s("line", { y1: c.m.t, y2: c.m.t + c.ph, class: "cursor", visibility: "hidden" });
+  svg.append(cursor);
+  const dots = opts.series.map(() => { const d = s("circle", { r: 4.5, class: "cursor-dot", visibility: "hidden" }); svg.append(d); return d; });
+  const num = (v, dec) => (typeof v === "number" && Number.isFinite(v) ? v.toFixed(dec) : "–");
+  let at = -1;
+  const show = (i) => {
+    at = Math.max(0, Math.min(xs.length - 1, i));
+    const x = xs[at];
+    cursor.setAttribute("x1", c.X(x)); cursor.setAttribute("x2", c.X(x)); cursor.setAttribute("visibility", "visible");
+    const parts = opts.series.map((se, k) => {
+      const p = se.points.reduce((best, q) => (Math.abs(q[0] - x) < Math.abs(best[0] - x) ? q : best), se.points[0]);
+      dots[k].setAttribute("cx", c.X(p[0])); dots[k].setAttribute("cy", c.Y(p[1])); dots[k].setAttribute("visibility", "visible");
+      return `${se.name} ${num(p[1], opts.yDec ?? 2)} ${opts.yUnit || ""}`.trim();
+    });
+    readout.textContent = `${opts.xName || "x"} ${num(x, opts.xDec ?? 0)} ${opts.xUnit || ""}: ${parts.join("; ")}`.replace(/ +:/, ":");
+  };
+  const nearest = (ev) => {
+    const pt = svg.createSVGPoint();
+    pt.x = ev.clientX; pt.y = ev.clientY;
+    const ctm = svg.getScreenCTM();
+    if (!ctm) return;
+    const local = pt.matrixTransform(ctm.inverse());
+    const xv = c.x0 + ((local.x - c.m.l) / c.pw) * (c.x1 - c.x0);
+    let best = 0;
+    xs.forEach((x, i) => { if (Math.abs(x - xv) < Math.abs(xs[best] - xv)) best = i; });
+    show(best);
+  };
+  svg.setAttribute("tabindex", "0");
+  svg.addEventListener("pointermove", nearest);
+  svg.addEventListener("pointerdown", nearest);
+  svg.addEventListener("keydown", (ev) => {
+    if (ev.key === "ArrowRight" || ev.key === "ArrowLeft") {
+      ev.preventDefault();
+      show(at < 0 ? 0 : at + (ev.key === "ArrowRight" ? 1 : -1));
+    }
+  });
+  return fig;
 }

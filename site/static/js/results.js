@@ -1,9 +1,10 @@
 // Results: per-line verdicts, checks in words, tables per part and operating point,
 // node pressures, rating with margins and cautions, hose candidates, thermal, plots.
 import { badge, el } from "./util.js";
-import { fmt, fmtDiff, toShow, unitLabel } from "./units.js";
+import { decimalsFor, fmt, fmtDiff, toShow, unitLabel } from "./units.js";
 import { declared, editValue, heading } from "./declared.js";
-import { lineChart } from "./plots.js";
+import { plotFigure } from "./plots.js";
+import { routeSketch } from "./sketch.js";
 
 let CAUTIONS = [];
 export function setCautions(list) { CAUTIONS = list; }
@@ -205,6 +206,8 @@ function lineCards(result, actions) {
     card.append(checksBlock(line.checks || [], actions));
     const asm = assemblyBlock(line);
     if (asm) card.append(asm);
+    const sketch = routeSketch(line.sketch, li);
+    if (sketch) card.append(el("h4", {}, declared("lines[].sketch").label), sketch);
     card.append(ratingBlock(line.rating));
     card.append(el("h4", {}, "Per part and operating point"), partsTable(result, li));
     if (line.candidates && line.candidates.length) card.append(candidatesBlock(line.candidates, li, actions));
@@ -362,28 +365,30 @@ export function renderPlots(result, sweep) {
       name: line.name || `line ${li + 1}`,
       points: r.conditions.map((c) => [toShow(c.fluid_temp_c, "temp_c"), toShow(c.lines[li].pressure_drop_bar, "pressure_bar")]),
     }));
-    grid.append(el("figure", { class: "plot" }, lineChart({
+    grid.append(plotFigure({
       id: "drop-vs-temp", title: `Pressure drop against fluid temperature (${r.engine_rpm} rpm)`,
       xLabel: `fluid temperature (${T})`, yLabel: `pressure drop (${P})`, series, yZero: true,
-    })));
+      xName: "fluid temperature", xUnit: T, xDec: decimalsFor("temp_c"), yUnit: P, yDec: decimalsFor("pressure_bar"),
+    }));
   } else {
     grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, sweep && sweep.error
       ? `Pressure drop against temperature: ${sweep.error}` : "Pressure drop against temperature: computing…")));
   }
   const curve = result.pump_curve;
   if (curve && Array.isArray(curve.points)) {
-    grid.append(el("figure", { class: "plot" }, lineChart({
+    grid.append(plotFigure({
       id: "flow-vs-speed", title: "Delivered flow against engine speed",
       xLabel: "engine speed (rpm)", yLabel: `delivered flow (${Q})`, markers: false,
       series: [{ name: "delivered flow", points: curve.points.map((p) => [p.engine_rpm, toShow(p.delivered_lpm, "flow_lpm")]), markers: false }],
       hlines: [{ y: toShow(curve.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(curve.flow_limit_lpm, "flow_lpm")} ${Q}` }],
-      yZero: true,
-    })));
+      yZero: true, xName: "engine speed", xUnit: "rpm", xDec: 0, yUnit: Q, yDec: decimalsFor("flow_lpm"),
+    }));
   }
   const th = result.thermal;
   if (th && Array.isArray(th.full_lock_curve) && th.full_lock_curve.length) {
     const C = "thermal.full_lock_curve[].";
-    grid.append(el("figure", { class: "plot" }, lineChart({
+    grid.append(plotFigure({
+      xName: "time held", xUnit: "s", xDec: 1, yUnit: T, yDec: decimalsFor("temp_c"),
       id: "temp-vs-time", title: "Fluid temperature at full lock",
       xLabel: "time held at full lock (s)", yLabel: `fluid temperature (${T})`,
       series: [
@@ -391,7 +396,7 @@ export function renderPlots(result, sweep) {
         { name: declared(`${C}bulk_temp_c`).label.toLowerCase(), points: th.full_lock_curve.map((p) => [p.t_s, toShow(p.bulk_temp_c, "temp_c")]), markers: false },
       ],
       hlines: [{ y: toShow(th.limit_c, "temp_c"), label: `fluid limit ${fmt(th.limit_c, "temp_c")} ${T}` }],
-    })));
+    }));
   } else {
     grid.append(el("figure", { class: "plot plot-wait" }, el("p", {}, "Fluid temperature at full lock: this engine build gives no full-lock curve.")));
   }
