@@ -254,7 +254,7 @@ function toolbar() {
     loadJob(reply.job);
     showFileMessage(`Opened ${file.name}.`, true);
   });
-  initThreadFinder({ call, getJob: () => state.job, fillAll, changed });
+  initThreadFinder({ call, getJob: () => state.job, applyEdits });
 }
 
 // ---------------------------------------------------------------- update notice
