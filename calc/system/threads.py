@@ -51,6 +51,7 @@ from __future__ import annotations
 import math
 import re
 from fractions import Fraction
+from functools import lru_cache
 
 from ..data.practice import METRIC_PITCH_MAX_MM
 from ..data.practice import THREAD_TOLERANCE as TOLERANCE
@@ -181,6 +182,13 @@ def port_choices(t, male: bool, seat=None) -> list[dict]:
     >>> [c["text"] for c in port_choices(threads()["9/16-18 UNF"], male=False, seat="o-ring")]
     ['O-ring port for an O-ring boss stud -6 (SAE J1926)']
     """
+    return [dict(c, port=dict(c["port"])) for c in _port_choices(t["designation"], male, seat)]
+
+
+@lru_cache(maxsize=None)
+def _port_choices(designation: str, male: bool, seat) -> tuple:
+    """:func:`port_choices` of one thread, planned once (the tables do not change)."""
+    t = threads()[designation]
     fams, words, out = end_families(), port_words(), []
     for e in _seat_ends(t, seat):
         if _port_gender(e["seal"]) != ("male" if male else "female"):
@@ -196,7 +204,7 @@ def port_choices(t, male: bool, seat=None) -> list[dict]:
         out.append({"port": port, "family": e["family"], "seal": e["seal"],
                     "text": f"{words[e['seal']][0].upper()}{words[e['seal']][1:]} for {_a(fams[e['family']]['label'])} "
                             f"{e['size']}{f' ({std})' if std else ''}"})
-    return out
+    return tuple(out)
 
 
 def _candidate(t, major_mm: float, pitch_mm: float, male: bool, tapered, seat=None) -> dict:

@@ -215,6 +215,12 @@ def test_screenshots_of_the_finder(finder):
         pg.evaluate("() => document.getElementById('thread-panel').scrollIntoView({block: 'start'})")
         pg.screenshot(path=str(SHOTS / "thread-finder-phone-viewport.png"))
         width = pg.evaluate("() => document.getElementById('thread-panel').getBoundingClientRect().width")
-        assert width > 0
+        assert 0 < width <= 390
+        # print: the finder and the port buttons stay off the build sheet
+        pg.set_viewport_size({"width": 1280, "height": 720})
+        pg.emulate_media(media="print")
+        assert not pg.is_visible("#thread-panel") and not pg.is_visible("#thread-finder-open")
+        pg.screenshot(path=str(SHOTS / "thread-finder-print.png"), full_page=True)
     finally:
+        pg.emulate_media(media="screen")
         pg.set_viewport_size({"width": 1366, "height": 768})
