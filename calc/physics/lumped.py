@@ -131,16 +131,31 @@ def _curve(step, t0_c, limit_c, hold_s, n_points, substeps, curve_stop_c):
     return curve, t_time, temp, reached
 
 
-def _search_limit(step, t_time, temp, limit_c, dt2, search_s):
-    """Step on past the curve until the limit is reached, the fluid levels off, or time runs out."""
+def _search_limit(step, t_time, temp, limit_c, dt2, search_s, growth=1.2):
+    """Step on past the curve until the limit is reached, the fluid levels off, or time runs out.
+
+    The exponential step is stable at any size, so the step grows by ``growth`` each time (a
+    slow creep over a day takes tens of steps, not hundreds of thousands); the step that crosses
+    the limit is then bisected for the time at which it reaches it.
+    """
     while t_time < search_s:
         new = step(temp, dt2)
         if new >= limit_c > temp:
-            return t_time + dt2 * (limit_c - temp) / (new - temp)
+            return t_time + _time_to(step, temp, limit_c, dt2)
         if new <= temp:  # levelled off below the limit
             return None
         temp, t_time = new, t_time + dt2
+        dt2 *= growth
     return None
+
+
+def _time_to(step, temp, limit_c, dt, iterations=40):
+    """Time within one step from ``temp`` to ``limit_c`` (bisection on the step length)."""
+    lo, hi = 0.0, dt
+    for _ in range(iterations):
+        mid = 0.5 * (lo + hi)
+        lo, hi = (lo, mid) if step(temp, mid) >= limit_c else (mid, hi)
+    return 0.5 * (lo + hi)
 
 
 def _warmup_message(reached, levels, limit_c, search_s):

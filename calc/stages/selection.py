@@ -59,9 +59,17 @@ def _edited_spec(spec, port_edits) -> dict:
     return out
 
 
+def _given(value):
+    """``value`` without the keys the user set to null (null means not given: an edit never writes one)."""
+    if isinstance(value, dict):
+        return {k: _given(v) for k, v in value.items() if v is not None}
+    return [_given(v) for v in value] if isinstance(value, list) else value
+
+
 def _edits(line: _Line, raw_parts: list, port_edits) -> list:
     j = line.index
-    out = [] if raw_parts == line.raw["parts"] else [{"path": f"lines[{j}].parts", "value": raw_parts}]
+    parts = _given(raw_parts)
+    out = [] if parts == _given(line.raw["parts"]) else [{"path": f"lines[{j}].parts", "value": parts}]
     return out + [{"path": f"lines[{j}].{end}.{key}", "value": value} for end, key, value in port_edits]
 
 

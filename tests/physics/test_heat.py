@@ -180,3 +180,28 @@ def test_warmup_is_stable_for_a_tiny_volume_and_big_rejection():
     # Source: exact asymptote Ta + P/UA = 50.5 C, reached within a few time constants (0.05 s).
     assert all(math.isfinite(p["temp_c"]) for p in r["curve"])
     assert r["curve"][-1]["temp_c"] == pytest.approx(50.5, abs=1e-9)
+
+
+def test_warmup_past_the_curve_finds_a_slow_creep_in_few_steps():
+    # Source: exact solution of C dT/dt = P - R0 with constant rejection R0: T = T0 + (P - R0) t / C, so the limit
+    # is reached at t = (limit - T0) C / (P - R0). The search past the curve once took 10^5-10^6 steps here.
+    calls = []
+
+    def rejected(t):
+        calls.append(t)
+        return 995.0
+
+    r = warmup(60.0, 1000.0, rejected, 4000.0, 125.0, 5.0)
+    exact = (125.0 - 60.0) * 4000.0 / (1000.0 - 995.0)  # 52,000 s, within the day searched
+    assert r["seconds_to_limit"] == pytest.approx(exact, rel=1e-9)
+    assert len(calls) < 2000
+
+
+def test_warmup_past_the_curve_matches_the_exact_crossing_time():
+    # Source: exact first-order solution, T = Teq + (T0 - Teq) exp(-t UA / C), Teq = Ta + P / UA; solved for the
+    # time at which T reaches the limit (Bergman et al., sec. 5.3).
+    t0, p, ua, ta, mcp, limit = 60.0, 1000.0, 7.0, 50.0, 40000.0, 170.0
+    r = warmup(t0, p, lambda t: ua * (t - ta), mcp, limit, 60.0)
+    teq = ta + p / ua
+    exact = -mcp / ua * math.log((limit - teq) / (t0 - teq))
+    assert exact > 60.0 and r["seconds_to_limit"] == pytest.approx(exact, rel=1e-6)
