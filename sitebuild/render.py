@@ -15,18 +15,20 @@ from .fetch import PYODIDE_VERSION
 
 
 def engine_page_model() -> dict:
-    """The engine's job model, result declaration, unit table, cautions and job-file size limit, for the form
-    and the page's script."""
+    """The engine's job model, result declaration, unit table, cautions, job-file size limit and the thread
+    operation's arguments (labels and seat answers), for the form and the page's script."""
     from calc.edges.jobfile import MAX_JOB_FILE_BYTES
     from calc.edges.report import CAUTIONS
     from calc.edges.units import UNITS
     from calc.model.job import describe_job
     from calc.model.result import describe_result
     from calc.data.tables import starting_job
+    from calc.edges.api import SEAT_LABELS, THREAD_ARGS
 
     return {"model": describe_job(), "result_model": describe_result(),
             "units": {k: list(v) for k, v in UNITS.items()}, "cautions": list(CAUTIONS),
-            "limits": {"job_file_max_bytes": MAX_JOB_FILE_BYTES}, "new_job": starting_job()}
+            "limits": {"job_file_max_bytes": MAX_JOB_FILE_BYTES}, "new_job": starting_job(),
+            "thread_args": {**THREAD_ARGS.describe(), "seat_labels": SEAT_LABELS}}
 
 
 def load_demos() -> list[dict]:

@@ -5,7 +5,7 @@ Every check that compares with a limit of practice reads it here, so a limit has
 from __future__ import annotations
 
 __all__ = ["INLET_MIN_BAR", "INLET_FLOOR_BAR", "COLD_START_MAX_C", "VELOCITY_BANDS_M_S", "TEMP_CAUTION_K", "LOW_PRESSURE_BAR", "TABLE_ROUNDING",
-           "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE", "DP_BUDGET_BAR", "PROOF_TEST_FACTOR", "METRIC_END_WINDOW"]
+           "CURVE_OVER_LIMIT_K", "THREAD_TOLERANCE", "METRIC_PITCH_MAX_MM", "DP_BUDGET_BAR", "PROOF_TEST_FACTOR", "METRIC_END_WINDOW"]
 
 #: Lowest pump-inlet gauge pressure before aeration and cavitation, bar (common practice, no source).
 INLET_MIN_BAR = -0.2
@@ -50,6 +50,11 @@ PROOF_TEST_FACTOR = 2.0
 #: Tube outside diameter of a metric hose end against the hose's bore: from 0.9 x bore to bore + 7 mm
 #: (common practice, no source: a hose takes ends one or two tube sizes over its bore).
 METRIC_END_WINDOW = (0.9, 7.0)
+
+#: A pitch reading in mm above this is no metric pitch and is read as threads per inch: the coarsest
+#: pitch of ISO 261 is 6 mm (M68 and up, from memory), while inch gauges read 4 to 80 (common practice,
+#: no source; a fitting thread of this size range never comes near 6 mm).
+METRIC_PITCH_MAX_MM = 6.0
 
 #: Tolerances of thread identification (see ``calc.system.threads`` for the reasoning).
 THREAD_TOLERANCE = {

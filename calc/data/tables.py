@@ -22,7 +22,7 @@ from .frozen import FrozenDict, freeze
 
 __all__ = ["load", "hose_classes", "find_class", "typical_hose_walls", "tube_materials", "fitting_families",
            "seals", "threads", "ends", "find_thread", "fluid_presets", "custom_fluid_defaults", "size_row",
-           "end_families", "seal_words", "port_words", "family_rating", "starting_job"]
+           "end_families", "seal_words", "port_words", "thread_seats", "family_rating", "starting_job"]
 
 
 @lru_cache(maxsize=None)
@@ -231,6 +231,16 @@ def end_families() -> FrozenDict:
 def seal_words() -> FrozenDict:
     """The sealing method of each port seal type, in words."""
     return load("threads.json")["seal_words"]
+
+
+def thread_seats() -> tuple:
+    """The answers to the thread finder's seat question: ``key``, ``label``, and the ``seals`` (seal
+    types) and ``families`` (end families) of the fitting ends each answer keeps.
+
+    >>> [s["key"] for s in thread_seats()][:3]
+    ['flare-37', 'flare-45', 'inverted-flare']
+    """
+    return load("threads.json")["seats"]
 
 
 def port_words() -> FrozenDict:

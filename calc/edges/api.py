@@ -14,8 +14,9 @@ source is assembled anywhere. Requests:
   (``calc.pipeline.sweep``);
 - ``{"op": "drop_curve", "job": {...}}`` -> pressure drop against fluid temperature for the
   page's plot: the sweep over the job's own temperature range (``calc.pipeline.drop_curve``);
-- ``{"op": "thread", "args": {"major_mm", "pitch_mm", "male", "tapered"}}`` -> thread candidates
-  (``calc.system.threads.identify``; ``male`` true when not given, ``tapered`` null when not known);
+- ``{"op": "thread", "args": {"major_mm", "pitch_mm" or "pitch_tpi", "male", "tapered", "seat"}}`` ->
+  thread candidates (``calc.system.threads.identify``; ``male`` true when not given, ``tapered`` and
+  ``seat`` null when not known; a ``pitch_mm`` over 6 is read as threads per inch, and said so);
 - ``{"op": "describe"}`` -> ``{"ok": true, "model": {...}}`` (the job model).
 
 A request with a key its operation does not take, or an argument of the wrong kind, is refused
@@ -37,11 +38,12 @@ from collections import deque
 from ..model.job import describe_job
 from ..model.schema import REQUIRED, Field, Record, key_text
 from ..pipeline import drop_curve, evaluate, sweep
-from ..system.threads import READING_RANGES, identify
+from ..data.tables import thread_seats
+from ..system.threads import READING_RANGES, SEAT_KEYS, BadReading, identify
 from .jobfile import loads, read_job_bytes, without_nulls
 from .units import localize_result
 
-__all__ = ["handle", "dispatch", "dumps", "finite", "MAX_REQUEST_CHARS", "FAULTS", "THREAD_ARGS", "OPERATIONS"]
+__all__ = ["handle", "dispatch", "dumps", "finite", "MAX_REQUEST_CHARS", "FAULTS", "THREAD_ARGS", "SEAT_LABELS", "OPERATIONS"]
 
 MAX_REQUEST_CHARS = 2_000_000
 
@@ -52,20 +54,31 @@ _UNITS = Field("units", "Display units", "choice", default="metric", choices=("m
 _FILE = Field("file_base64", "Job file (base64)", "text", default=REQUIRED, max_length=MAX_REQUEST_CHARS)
 
 
-def _reading(key: str, label: str) -> Field:
+def _reading(key: str, label: str, unit, default, help: str) -> Field:
     lo, hi = READING_RANGES[key]
-    return Field(key, label, unit="length_mm", default=REQUIRED, gt=lo, lt=hi)
+    return Field(key, label, unit=unit, default=default, gt=lo, lt=hi, help=help)
 
 
-#: The thread operation's arguments (limits from ``calc.system.threads.READING_RANGES``).
+#: The thread operation's arguments (limits from ``calc.system.threads.READING_RANGES``); the page
+#: takes its labels and the seat answers from this declaration.
 THREAD_ARGS = Record("args", "Thread reading", (
-    _reading("major_mm", "Caliper reading"), _reading("pitch_mm", "Pitch"),
-    Field("male", "Male thread", "bool", default=True),
-    Field("tapered", "Tapered", "bool", default=None),
+    _reading("major_mm", "Measured diameter", "length_mm", REQUIRED,
+             "Male thread: the major diameter, calipers across the crests. Female thread: the minor diameter, "
+             "the bore across the crests inside the port."),
+    _reading("pitch_mm", "Pitch in mm", "length_mm", None,
+             "Distance from crest to crest. A reading over 6 mm is read as threads per inch."),
+    _reading("pitch_tpi", "Threads per inch", None, None, "Crests counted over one inch (inch thread gauge)."),
+    Field("male", "Male thread (external)", "bool", default=True,
+          help="Male: the thread is on the outside. Female: it is inside a port."),
+    Field("tapered", "Looks tapered", "bool", default=None, help="Empty: not sure."),
+    Field("seat", "Seat or sealing face", "choice", default=None, choices=SEAT_KEYS,
+          help="What seals the joint besides the thread. Empty: not sure."),
 ))
+#: The seat answers in words, by key (``calc.data.tables.thread_seats``).
+SEAT_LABELS = {s["key"]: s["label"] for s in thread_seats()}
 
 #: What a request must give with its operation, in words.
-_NEEDS = {"job": "the job as a JSON object", "args": "major_mm and pitch_mm",
+_NEEDS = {"job": "the job as a JSON object", "args": "major_mm and pitch_mm (or pitch_tpi)",
           "file_base64": "the job file's bytes in base64"}
 #: Each operation and the keys its request takes besides "op".
 OPERATIONS = {"evaluate": ("job", "units"), "open": ("file_base64", "units"), "sweep": ("job",),
@@ -133,7 +146,11 @@ def dispatch(request) -> dict:
         return _open(request)
     if op == "thread":
         args = THREAD_ARGS.check(request["args"], "args", [], [])
-        return {"ok": True, "result": identify(**args)}
+        try:
+            return {"ok": True, "result": identify(**args)}
+        except BadReading as exc:  # both pitches or neither: named by the argument, never a fault
+            key, _, message = str(exc).partition(": ")
+            return _err(f"args.{key}", message)
     return {"ok": True, "model": describe_job()}
 
 

@@ -12,7 +12,7 @@ import sys
 
 from ..model.job import describe_job
 from ..model.result import describe_result
-from ..system.threads import BadReading, identify, parse_length, parse_pitch
+from ..system.threads import SEAT_KEYS, BadReading, identify, parse_length, parse_pitch
 from .jobfile import MAX_JOB_FILE_BYTES
 from .units import label
 
@@ -180,7 +180,7 @@ class _Parser(argparse.ArgumentParser):
 
 
 def main_thread(argv: list[str]) -> int:
-    """``python -m calc thread MAJOR PITCH [--male|--female] [--tapered|--straight] [--json]``.
+    """``python -m calc thread MAJOR PITCH [--male|--female] [--tapered|--straight] [--seat SEAT] [--json]``.
 
     MAJOR is a caliper reading with its unit (``15.9mm``, ``0.625in``,
     ``5/8in``); for a female thread it is the minor diameter across the crests.
@@ -203,6 +203,8 @@ def main_thread(argv: list[str]) -> int:
     t = p.add_mutually_exclusive_group()
     t.add_argument("--tapered", dest="tapered", action="store_const", const=True, default=None)
     t.add_argument("--straight", dest="tapered", action="store_const", const=False)
+    p.add_argument("--seat", choices=SEAT_KEYS, default=None,
+                   help="the seat or sealing face seen at the port; threads with no end of that seat do not match")
     p.add_argument("--json", action="store_true")
     try:
         args = p.parse_args(argv)
@@ -222,7 +224,7 @@ def main_thread(argv: list[str]) -> int:
         print(f"thread: PITCH: {exc}", file=sys.stderr)
         return 2
     try:
-        r = identify(major, pitch, male=args.male, tapered=args.tapered)
+        r = identify(major, pitch, male=args.male, tapered=args.tapered, seat=args.seat)
     except BadReading as exc:
         name = "MAJOR" if str(exc).startswith("major") else "PITCH"
         print(f"thread: {name}: {exc}", file=sys.stderr)

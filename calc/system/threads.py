@@ -30,6 +30,12 @@ Measurement convention (what the user gives)
   reading depends on where the jaws sit, the window is widened on both sides by
   ``gauge length / 16`` (the diameter change over the hand-tight engagement),
   0.25-0.65 mm for the sizes tabled.
+* Pitch reading in mm over 6 mm (``METRIC_PITCH_MAX_MM``): no metric pitch is that coarse
+  (ISO 261 ends at 6 mm, M68 and up, from memory), so a reading like "18" is read as threads
+  per inch and the answer says so in words (common practice, no source).
+* Seat or sealing face (optional, ``calc.data.tables.thread_seats``): a thread none of whose
+  fitting ends has that seat is not counted as a match (like a taper that disagrees), and only
+  the ends with that seat are offered for the port.
 * Pitch: from a thread gauge (exact) in threads per inch or mm. Accepted within
   **1 %** of the table pitch (common practice, no source): 18 tpi (1.411 mm) and
   1.5 mm differ by 6 %, 19 and 18 tpi by 5 %, 20 tpi (1.270 mm) and 1.25 mm by
@@ -45,13 +51,16 @@ from __future__ import annotations
 import math
 import re
 from fractions import Fraction
+from functools import lru_cache
 
+from ..data.practice import METRIC_PITCH_MAX_MM
 from ..data.practice import THREAD_TOLERANCE as TOLERANCE
-from ..data.tables import end_families, seal_words, threads
+from ..data.tables import end_families, port_words, seal_words, thread_seats, threads
 from ..model.schema import number_problem
 from ..physics.threadform import basic_minor_diameter_mm
+from .adapters import plan_for_port
 
-__all__ = ["TOLERANCE", "READING_RANGES", "BadReading", "thread_table", "expected_reading_mm", "identify", "parse_length",
+__all__ = ["TOLERANCE", "READING_RANGES", "SEAT_KEYS", "read_pitch", "port_choices", "BadReading", "thread_table", "expected_reading_mm", "identify", "parse_length",
            "parse_pitch"]
 
 
@@ -130,7 +139,11 @@ def _uses_of(thread) -> list[str]:
 
 
 #: The readings ``identify`` takes, each between these bounds (exclusive): a caliper reading in mm, a pitch in mm.
-READING_RANGES = {"major_mm": (1.0, 200.0), "pitch_mm": (0.2, 10.0)}
+#: A pitch in mm above ``METRIC_PITCH_MAX_MM`` is read as threads per inch, hence its wide range.
+READING_RANGES = {"major_mm": (1.0, 200.0), "pitch_mm": (0.2, 100.0), "pitch_tpi": (2.0, 100.0)}
+#: The answers to the seat question (``None``: not sure).
+SEAT_KEYS = tuple(s["key"] for s in thread_seats())
+_MALE_PORT_SEALS = ("flare-37", "cone-24")  # a stub on the component (calc.system.adapters)
 
 
 def _check_number(name: str, value) -> float:
@@ -143,7 +156,58 @@ def _check_number(name: str, value) -> float:
     return float(value)
 
 
-def _candidate(t, major_mm: float, pitch_mm: float, male: bool, tapered) -> dict:
+def _seat_ends(t, seat) -> list:
+    """The thread's fitting ends that have the seat (all of them when the seat is not known)."""
+    if seat is None:
+        return list(t["ends"])
+    row = next(s for s in thread_seats() if s["key"] == seat)
+    return [e for e in t["ends"] if e["seal"] in row["seals"] or e["family"] in row["families"]]
+
+
+def _a(words: str) -> str:
+    return ("an " if words[0].lower() in "aeiou" else "a ") + words
+
+
+def _port_gender(seal: str) -> str:
+    return "male" if seal in _MALE_PORT_SEALS else "barb" if seal == "hose-barb" else "female"
+
+
+def port_choices(t, male: bool, seat=None) -> list[dict]:
+    """Ports of this thread a line end fits directly: per fitting end with the seat whose port has the
+    measured gender, the port fields to write (``thread``, ``seal``, the line end's family and size)
+    and the port in words. Each is checked with the adapter planner: it seals with no adapter.
+
+    Examples
+    --------
+    >>> [c["text"] for c in port_choices(threads()["9/16-18 UNF"], male=False, seat="o-ring")]
+    ['O-ring port for an O-ring boss stud -6 (SAE J1926)']
+    """
+    return [dict(c, port=dict(c["port"])) for c in _port_choices(t["designation"], male, seat)]
+
+
+@lru_cache(maxsize=None)
+def _port_choices(designation: str, male: bool, seat) -> tuple:
+    """:func:`port_choices` of one thread, planned once (the tables do not change)."""
+    t = threads()[designation]
+    fams, words, out = end_families(), port_words(), []
+    for e in _seat_ends(t, seat):
+        if _port_gender(e["seal"]) != ("male" if male else "female"):
+            continue
+        size = ({"line_end_tube_od_mm": e["tube_od_mm"]} if e["family"].startswith("cone-24") else
+                {"line_end_dash": e["dash"]} if e["dash"] is not None else {"line_end_thread": e["thread"]})
+        port = {"thread": t["designation"], "seal": e["seal"], "line_end_family": e["family"],
+                "line_end_dash": None, "line_end_tube_od_mm": None, "line_end_thread": None, **size}
+        plan = plan_for_port(port)
+        if not plan["ok"] or plan["adapters"]:
+            continue
+        std = fams[e["family"]]["standard"]
+        out.append({"port": port, "family": e["family"], "seal": e["seal"],
+                    "text": f"{words[e['seal']][0].upper()}{words[e['seal']][1:]} for {_a(fams[e['family']]['label'])} "
+                            f"{e['size']}{f' ({std})' if std else ''}"})
+    return tuple(out)
+
+
+def _candidate(t, major_mm: float, pitch_mm: float, male: bool, tapered, seat=None) -> dict:
     """One thread row scored against the reading."""
     under, over = ((TOLERANCE["male_under_mm"], TOLERANCE["male_over_mm"]) if male else
                    (TOLERANCE["female_under_mm"], TOLERANCE["female_over_mm"]))
@@ -152,11 +216,13 @@ def _candidate(t, major_mm: float, pitch_mm: float, male: bool, tapered) -> dict
     perr = pitch_mm - t["pitch_mm"]
     pn = abs(perr) / (TOLERANCE["pitch_percent"] / 100.0 * t["pitch_mm"])
     taper_ok = tapered is None or tapered == t["tapered"]
-    within = lo <= major_mm <= hi and pn <= 1.0 and taper_ok
+    seat_ends = _seat_ends(t, seat)
+    seat_ok = seat is None or bool(seat_ends)
+    within = lo <= major_mm <= hi and pn <= 1.0 and taper_ok and seat_ok
     # ranking uses the straight-thread tolerance for every thread, so that the wider
     # window of a tapered thread does not make it look a better fit than a straight one
     dn = err / over if err >= 0 else -err / under
-    score = math.hypot(dn, pn) + (0.0 if taper_ok else 2.0)
+    score = math.hypot(dn, pn) + (0.0 if taper_ok else 2.0) + (0.0 if seat_ok else 2.0)
     fams = end_families()
     return {
         "thread": t["designation"], "family": t["family"], "within": within,
@@ -164,10 +230,12 @@ def _candidate(t, major_mm: float, pitch_mm: float, male: bool, tapered) -> dict
         "expected_mm": round(exp, 3), "window_mm": [round(lo, 3), round(hi, 3)],
         "fit_error_mm": round(err, 3), "pitch_error_mm": round(perr, 4),
         "pitch_error_percent": round(100.0 * perr / t["pitch_mm"], 2),
-        "taper_ok": taper_ok, "score": round(score, 3),
+        "taper_ok": taper_ok, "seat_ok": seat_ok, "score": round(score, 3),
         "uses": _uses_of(t),
-        "ends": [f"{fams[e['family']]['label']} {e['size']} ({fams[e['family']]['standard']})" for e in t["ends"]],
+        "ends": [f"{fams[e['family']]['label']} {e['size']}" + (f" ({fams[e['family']]['standard']})"
+                 if fams[e["family"]]["standard"] else "") for e in t["ends"]],
         "seals": _seals_of(t), "source": t["source"],
+        "port_choices": port_choices(t, male, seat),
     }
 
 
@@ -187,14 +255,43 @@ def _good_message(good: list, tapered) -> str:
 def _none_message(near: list, tol: dict, male: bool) -> str:
     def desc(c):
         return (f"{c['thread']} (diameter {c['fit_error_mm']:+.2f} mm, pitch {c['pitch_error_percent']:+.1f} %"
-                f"{'' if c['taper_ok'] else ', taper differs'})")
+                f"{'' if c['taper_ok'] else ', taper differs'}{'' if c['seat_ok'] else ', no end with that seat'})")
     return (f"No thread in the tables fits within tolerance (diameter "
             f"-{tol['male_under_mm' if male else 'female_under_mm']:.2f}/"
             f"+{tol['male_over_mm' if male else 'female_over_mm']:.2f} mm, pitch +/-{tol['pitch_percent']:g} %). "
-            f"Nearest: {' and '.join(desc(c) for c in near)}. Check the reading, the gauge and the taper.")
+            f"Nearest: {' and '.join(desc(c) for c in near)}. Check the reading, the gauge, the taper and the seat.")
 
 
-def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool | None = None) -> dict:
+def read_pitch(pitch_mm=None, pitch_tpi=None) -> tuple[float, str | None]:
+    """The pitch in mm from a gauge reading given in mm or in threads per inch, and a sentence when a
+    reading in mm was read as threads per inch.
+
+    A reading in mm above ``METRIC_PITCH_MAX_MM`` (6 mm) is no metric pitch and is read as
+    threads per inch (common practice, no source).
+
+    Examples
+    --------
+    >>> round(read_pitch(18)[0], 4), read_pitch(18)[1]
+    (1.4111, 'A pitch of 18 mm is coarser than any metric thread (ISO 261 ends at 6 mm), so 18 was read as 18 threads per inch (1.411 mm).')
+    >>> read_pitch(1.5), round(read_pitch(pitch_tpi=20)[0], 3)
+    ((1.5, None), 1.27)
+    """
+    if pitch_mm is None and pitch_tpi is None:
+        raise BadReading("pitch_mm: is missing: give the pitch in mm or in threads per inch")
+    if pitch_mm is not None and pitch_tpi is not None:
+        raise BadReading("pitch_tpi: give the pitch once, in mm or in threads per inch, not both")
+    if pitch_tpi is not None:
+        return 25.4 / _check_number("pitch_tpi", pitch_tpi), None
+    mm = _check_number("pitch_mm", pitch_mm)
+    if mm <= METRIC_PITCH_MAX_MM:
+        return mm, None
+    return 25.4 / mm, (f"A pitch of {mm:g} mm is coarser than any metric thread (ISO 261 ends at "
+                       f"{METRIC_PITCH_MAX_MM:g} mm), so {mm:g} was read as {mm:g} threads per inch "
+                       f"({25.4 / mm:.3f} mm).")
+
+
+def identify(major_mm: float, pitch_mm: float | None = None, male: bool = True, tapered: bool | None = None,
+             seat: str | None = None, pitch_tpi: float | None = None) -> dict:
     """Rank the table threads against a caliper reading and a pitch-gauge reading.
 
     Parameters
@@ -203,13 +300,20 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
         Caliper reading in mm: for a male thread the major diameter across the
         crests; for a female thread the minor diameter across the crests of the
         internal thread (see the module docstring). Range 1-200 mm.
-    pitch_mm : float
-        Pitch in mm (25.4 / threads per inch). Range 0.2-10 mm.
+    pitch_mm : float or None
+        Pitch in mm, range 0.2-100; a reading over 6 mm is read as threads per inch
+        (:func:`read_pitch`). Give this or ``pitch_tpi``.
+    pitch_tpi : float or None
+        Pitch in threads per inch, range 2-100.
     male : bool
         True for a male (external) thread, False for a female (internal) one.
     tapered : bool or None
         True if the thread looks tapered, False if straight, None if not known.
         A candidate whose taper disagrees is not counted as a match.
+    seat : str or None
+        The seat or sealing face seen at the port (:data:`SEAT_KEYS`), None if not sure.
+        A thread with no fitting end of that seat is not counted as a match; the
+        candidates' ``port_choices`` keep only the ends with it.
 
     Returns
     -------
@@ -226,8 +330,9 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
         a taper mismatch; 0 = exact, lower is better; a tapered thread's wider
         window can hold readings scoring above 1), ``uses`` (end families), ``ends``
         (readable end names with size), ``seals`` (sealing methods in words),
-        ``source``; ``match``: ``"good"`` or ``"none"``; ``message``: one or two
-        sentences.
+        ``source``, ``seat_ok``, ``port_choices`` (:func:`port_choices`); ``match``: ``"good"`` or
+        ``"none"``; ``message``: one or two sentences; ``pitch_used_mm`` and ``pitch_note`` (the
+        sentence of :func:`read_pitch`, or None).
 
     Raises
     ------
@@ -259,12 +364,14 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
     ('none', 'M12x1.5', 2)
     """
     major_mm = _check_number("major_mm", major_mm)
-    pitch_mm = _check_number("pitch_mm", pitch_mm)
+    pitch_mm, pitch_note = read_pitch(pitch_mm, pitch_tpi)
+    if seat is not None and seat not in SEAT_KEYS:
+        raise BadReading(f"seat: must be one of {', '.join(SEAT_KEYS)} or null, got {_quoted(seat)}")
     if not isinstance(male, bool):
         raise BadReading(f"male: must be true or false, got {_quoted(male)}")
     if tapered is not None and not isinstance(tapered, bool):
         raise BadReading(f"tapered: must be true, false or null, got {_quoted(tapered)}")
-    rows = [_candidate(t, major_mm, pitch_mm, male, tapered) for t in threads().values()]
+    rows = [_candidate(t, major_mm, pitch_mm, male, tapered, seat) for t in threads().values()]
     rows.sort(key=lambda c: (not c["within"], c["score"], c["thread"]))
     good = [c for c in rows if c["within"]]
     near = [c for c in rows if not c["within"]][:2]
@@ -273,9 +380,11 @@ def identify(major_mm: float, pitch_mm: float, male: bool = True, tapered: bool 
                        "minor diameter across the crests of the internal thread (female thread)")
     if tapered:
         tol["measured"] += "; tapered: at the large end of a male thread, at the mouth of a female one"
+    extra = {"pitch_used_mm": round(pitch_mm, 5), "pitch_note": pitch_note, "seat": seat}
     if good:
-        return {"tolerance": tol, "candidates": good + near, "match": "good", "message": _good_message(good, tapered)}
-    return {"tolerance": tol, "candidates": near, "match": "none", "message": _none_message(near, tol, male)}
+        return {"tolerance": tol, "candidates": good + near, "match": "good",
+                "message": _good_message(good, tapered), **extra}
+    return {"tolerance": tol, "candidates": near, "match": "none", "message": _none_message(near, tol, male), **extra}
 
 
 # -- parsing ----------------------------------------------------------------

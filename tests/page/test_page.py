@@ -459,7 +459,7 @@ def test_thread_panel_ranks_like_the_engine(page):
     # the identified thread goes into a port of the job, and nothing else in the job changes
     before = _job(page)
     page.select_option("#thr-use-thread", "0")
-    page.select_option("#thr-use-port", "0:from_port")
+    page.select_option("#thr-use-port", "lines[0].from_port")
     page.click("#thr-use-go")
     _settle(page)
     after = _job(page)

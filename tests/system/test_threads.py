@@ -122,11 +122,11 @@ def test_no_fit_names_the_nearest_two():
 
 def test_candidate_shape_and_tolerance_statement():
     r = identify(14.2, IN / 18, male=False)
-    assert set(r) == {"tolerance", "candidates", "match", "message"}
+    assert set(r) == {"tolerance", "candidates", "match", "message", "pitch_used_mm", "pitch_note", "seat"}
     assert "minor diameter" in r["tolerance"]["measured"]
     c = r["candidates"][0]
     for key in ("thread", "family", "fit_error_mm", "pitch_error_mm", "score", "uses", "seals", "source",
-                "window_mm", "within"):
+                "window_mm", "within", "seat_ok", "port_choices"):
         assert key in c
     assert c["window_mm"][0] <= c["expected_mm"] <= c["window_mm"][1]
 
