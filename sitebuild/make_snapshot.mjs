@@ -19,6 +19,9 @@ const { loadPyodide } = await import(pathToFileURL(path.join(indexDir, "pyodide.
 const py = await loadPyodide({
   indexURL: indexDir + path.sep, _makeSnapshot: true, stdout: () => {}, stderr: (t) => console.error(t),
 });
+// Pyodide 314.0.7 restores a snapshot into the module's initial memory and cannot grow it first
+// (loadPyodide ignores INITIAL_MEMORY): a snapshot of a runtime whose memory grew cannot be restored.
+const initialMemory = py._module.HEAP8.length;
 const sitePackages = py.pyimport("site").getsitepackages()[0];
 const bytesOf = (file) => {
   const b = fs.readFileSync(file); // a Buffer: unpackArchive wants a plain Uint8Array
@@ -53,6 +56,10 @@ py.FS.writeFile(path.posix.join(sitePackages, "linesmith_boot.py"), fs.readFileS
 py.pyimport("importlib").invalidate_caches();
 py.runPython(fs.readFileSync(warmup, "utf8"));
 const done = py.globals.get("main")(engineBuild).toJs({ dict_converter: Object.fromEntries });
+if (py._module.HEAP8.length !== initialMemory) {
+  throw new Error(`the warm-up grew the memory from ${initialMemory} to ${py._module.HEAP8.length} bytes; ` +
+                  "a restore could not hold it: make the warm-up lighter");
+}
 zeroFreeMemory(py._module);
 const raw = py.makeMemorySnapshot();
 fs.writeFileSync(outGz, zlib.gzipSync(raw, { level: 9 }));

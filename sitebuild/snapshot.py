@@ -162,5 +162,8 @@ def add_snapshot(stage: Path, cache_dir: Path = CACHE_DIR, node: str | None = "a
         return None
     shutil.copyfile(cached, stage / SNAPSHOT_FILE)
     import calc  # build time: the engine's version, as the snapshot recorded it
+    info = json.loads(Path(f"{cached}.json").read_text(encoding="utf-8"))
     return {"url": f"./{SNAPSHOT_FILE}", "engine_build": engine_build, "version": calc.__version__,
-            "sha256": sha256_file(cached), "bytes": cached.stat().st_size, "limit_ms": RESTORE_LIMIT_MS}
+            "pyodide": PYODIDE_VERSION, "sha256": sha256_file(cached), "bytes": cached.stat().st_size,
+            "raw_bytes": info["bytes_raw"],
+            "limit_ms": RESTORE_LIMIT_MS}
