@@ -104,7 +104,7 @@ def _swap_into_place(stage: Path, out_dir: Path, attempts: int = 20) -> None:
 
 
 def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
-          extra_files: dict[str, bytes] | None = None, node: str | None = "auto") -> dict:
+          extra_files: dict[str, bytes] | None = None, *, node: str | None = "auto") -> dict:
     """Build the static site into out_dir and return its manifest.
 
     The site is assembled in a fresh folder beside out_dir and then moved into
