@@ -23,7 +23,7 @@ import { loadPyodide } from "./pyodide/pyodide.mjs";
 import { fetchSnapshot, restore } from "./pyodide_snapshot.mjs";
 
 let handle = null;
-let refilling = null; // after a restore: the promise of the wheels unpacked again
+let refilling = null; // after a restore, while the wheels are unpacked again: the promise of it
 
 function send(message) {
   postMessage(JSON.stringify(message));
@@ -85,7 +85,7 @@ function sendReady(pyodide, timings) {
   // For tests and the browser benchmark (Playwright's worker.evaluate): the
   // runtime, to read its memory or to make the engine fail on purpose. Only
   // code already running in this worker can reach it.
-  self.linesmithEngine = { pyodide, version: pyodide.version, refilled: refilling };
+  self.linesmithEngine = { pyodide, version: pyodide.version, refilled: refilling || Promise.resolve(false) };
   send({ type: "ready", timings_ms: timings });
 }
 
@@ -93,7 +93,7 @@ function sendReady(pyodide, timings) {
 async function snapshotBoot(config) {
   const t0 = performance.now();
   const snap = config.snapshot;
-  progress(10, "Starting the engine from its stored image…");
+  progress(10, `Starting the engine from its stored image (about ${Math.round(13 + snap.bytes / 1e6)} MB on first visit)…`);
   let tFetched = 0;
   const bytes = fetchSnapshot(absolute(snap.url), snap.raw_bytes).then((b) => { tFetched = performance.now(); return b; });
   bytes.catch(() => {}); // reported by restore()
@@ -106,14 +106,16 @@ async function snapshotBoot(config) {
   const tChecked = performance.now();
   // The file system is not in the snapshot: unpack the wheels again once the page has its first
   // result. Until then a module first imported now would be missing; call() retries after this.
-  refilling = new Promise((resolve) => setTimeout(resolve, 0)).then(async () => {
+  const refilled = new Promise((resolve) => setTimeout(resolve, 0)).then(async () => {
     const files = fetchEngineFiles(config);
     install(pyodide, await files.wheels, await files.bytecode, await files.bootModule);
     return true;
   });
-  refilling.catch(() => {});
+  refilling = refilled;
+  refilled.catch(() => false).then(() => { refilling = null; });
   sendReady(pyodide, {
     snapshot: true,
+    bytecode: Boolean(config.bytecode), // the snapshot's engine was imported from build.py's bytecode
     fetch: Math.round(tFetched - t0),
     restore: Math.round(tRestored - t0),
     check: Math.round(tChecked - tRestored),
@@ -188,10 +190,8 @@ async function call(id, request) {
   let response = answer(request);
   if (refilling && /"internal": ?true/.test(response)) {
     // Right after a restore a module not in the snapshot cannot be imported until the wheels
-    // are unpacked again: answer once more when they are.
-    const refilled = await refilling.catch(() => false);
-    refilling = null;
-    if (refilled) response = answer(request);
+    // are unpacked again: answer once more when they are (only in that window).
+    if (await refilling.catch(() => false)) response = answer(request);
   }
   send({ type: "reply", id, response, handle_ms: performance.now() - t0 });
 }
