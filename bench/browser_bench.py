@@ -50,7 +50,7 @@ from sitebuild.fetch import PYODIDE_VERSION  # noqa: E402
 from sitebuild.render import load_demos  # noqa: E402
 from sitebuild.serve import SiteHandler  # noqa: E402
 from tests.browser_support import (  # noqa: E402
-    LAUNCH_ARGS, PROBE_JS, engine_config, find_chromium, probe_worker)
+    LAUNCH_ARGS, PROBE_JS, find_chromium, probe_worker)
 
 TIMEOUT_MS = 180_000
 
@@ -195,7 +195,7 @@ def wait_ready(page):
     if page.get_attribute("body", "data-engine") != "ready":
         raise RuntimeError(f"engine failed: {page.inner_text('body')[:300]}")
     page.wait_for_function("window.__readyAt !== undefined", timeout=TIMEOUT_MS)
-    return page.evaluate("window.__readyAt")
+    return page.evaluate("() => window.__readyAt")
 
 
 def launch(playwright, executable, profile):
@@ -246,6 +246,14 @@ def machine() -> dict:
             "os": platform.platform(), "python": platform.python_version()}
 
 
+def timing_medians(runs, key):
+    """Median of every numeric field of the worker's ready timings (the boot's phases)."""
+    names = [k for k, v in runs[0][key].items()
+             if isinstance(v, (int, float)) and not isinstance(v, bool) and not k.startswith("epoch_")]
+    return {k: statistics.median(r[key][k] for r in runs if isinstance(r[key].get(k), (int, float)))
+            for k in names if all(isinstance(r[key].get(k), (int, float)) for r in runs)}
+
+
 def main() -> int:
     ap = argparse.ArgumentParser()
     ap.add_argument("--runs", type=int, default=5)
@@ -292,7 +300,7 @@ def main() -> int:
             r["worker_timings_ms"] = json.loads(page.get_attribute("body", "data-worker-timings") or "{}")
             # Where the time outside the worker's boot goes: before the page starts the
             # worker, and after the engine is ready (first evaluation, rendering).
-            origin = page.evaluate("performance.timeOrigin")
+            origin = page.evaluate("() => performance.timeOrigin")
             if "epoch_start" in r["worker_timings_ms"]:
                 r["worker_started_after_navigation_ms"] = r["worker_timings_ms"]["epoch_start"] - origin
                 r["first_result_after_worker_ready_ms"] = r["cold_ms"] - (r["worker_timings_ms"]["epoch_ready"] - origin)
@@ -303,7 +311,7 @@ def main() -> int:
             r["page_js_heap_used_bytes"] = metrics.get("JSHeapUsedSize")
             app_worker = next((w for w in page.workers if w.url.split("?")[0].endswith("/worker.js")), None)
             r["worker_wasm_memory_bytes"] = app_worker.evaluate(
-                "self.linesmithEngine ? self.linesmithEngine.pyodide._module.HEAP8.length : null") \
+                "() => self.linesmithEngine ? self.linesmithEngine.pyodide._module.HEAP8.length : null") \
                 if app_worker else None
             r["browser_pss_bytes"] = browser_pss_bytes(profile)
             page.wait_for_selector('body[data-offline="ready"], body[data-offline="failed"]',
@@ -324,9 +332,11 @@ def main() -> int:
 
             if run == 0:
                 # (d) recalculation and the import costs, in a probe worker on this page
-                page.evaluate(PROBE_JS, engine_config(manifest))
-                costs = json.loads(probe_worker(page).evaluate(
-                    "(code) => self.linesmithEngine.pyodide.runPython(code)", IMPORT_COST_PY))
+                # The probe starts as the page does: from the engine snapshot when the build has one.
+                config = json.loads(page.evaluate("() => document.getElementById('linesmith-config').textContent"))
+                page.evaluate(PROBE_JS, config)
+                probe = probe_worker(page)
+                probe.evaluate("async () => { await self.linesmithEngine.refilled; }")  # files back after a restore
                 first = page.evaluate("(r) => window.__probe.call(r)",
                                       json.dumps({"op": "evaluate", "job": jobs[0]}))
                 browser_handle, round_trip = [], []
@@ -351,6 +361,10 @@ def main() -> int:
                 }
                 recalc["ratio_browser_to_cpython"] = (recalc["worker_handle_ms"]["median"]
                                                       / recalc["cpython_handle_ms"]["median"])
+                recalc["probe_started_from_snapshot"] = bool(config.get("snapshot"))
+                # Last: it re-imports the engine in the probe (after the recalculation figures).
+                costs = json.loads(probe.evaluate(
+                    "(code) => self.linesmithEngine.pyodide.runPython(code)", IMPORT_COST_PY))
             ctx.close()
             runs.append(r)
             print(f"run {run + 1}: bare {r['bare_boot_ms']:.0f} ms, cold {r['cold_ms']:.0f} ms, "
@@ -371,10 +385,12 @@ def main() -> int:
         "cold_over_bare": med("cold_ms") / med("bare_boot_ms"),
         "cold_over_bare_per_run": [r["cold_ms"] / r["bare_boot_ms"] for r in runs],
         "warm_start_to_first_result_ms": med("warm_ms"),
-        "worker_timings_ms_median": {k: statistics.median(r["worker_timings_ms"][k] for r in runs)
-                                     for k in runs[0]["worker_timings_ms"] if k not in ("bytecode", "epoch_start", "epoch_ready")},
-        "warm_worker_timings_ms_median": {k: statistics.median(r["warm_worker_timings_ms"][k] for r in runs)
-                                          for k in runs[0]["warm_worker_timings_ms"] if k not in ("bytecode", "epoch_start", "epoch_ready")},
+        "worker_timings_ms_median": timing_medians(runs, "worker_timings_ms"),
+        "warm_worker_timings_ms_median": timing_medians(runs, "warm_worker_timings_ms"),
+        "snapshot_used_cold_runs": sum(bool(r["worker_timings_ms"].get("snapshot")) for r in runs),
+        "snapshot_used_warm_runs": sum(bool(r["warm_worker_timings_ms"].get("snapshot")) for r in runs),
+        "warm_over_bare": med("warm_ms") / med("bare_boot_ms"),
+        "warm_over_bare_per_run": [r["warm_ms"] / r["bare_boot_ms"] for r in runs],
         "bytecode_shipped": all(r["worker_timings_ms"].get("bytecode") for r in runs),
         "cold_start_parts_ms_median": {
             "worker_started_after_navigation": med("worker_started_after_navigation_ms"),

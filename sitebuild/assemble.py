@@ -13,6 +13,7 @@ from .common import CACHE_DIR, DEMO_DIR, DIST_DIR, ROOT, SITE_DIR, BuildError
 from .fetch import copy_pyodide, copy_wheel_licences, pyodide_tarball, third_party_wheels
 from .render import load_demos, render_page
 from .service_worker import write_manifest, write_service_worker
+from .snapshot import add_snapshot
 from .wheel import build_calc_wheel
 
 
@@ -53,7 +54,7 @@ def _write_extra_files(stage: Path, extra_files: dict[str, bytes] | None) -> Non
 
 
 def _fill_stage(stage: Path, tarball: Path, other_wheels: list[Path],
-                cache_dir: Path, extra_files: dict[str, bytes] | None) -> dict:
+                cache_dir: Path, extra_files: dict[str, bytes] | None, node: str | None) -> dict:
     """Write the whole site into stage; return its manifest."""
     copy_pyodide(tarball, stage / "pyodide")
     wheel_dir = stage / "wheels"
@@ -71,11 +72,13 @@ def _fill_stage(stage: Path, tarball: Path, other_wheels: list[Path],
     lazy_names = compile_bytecode(stage / "pyodide", [calc_wheel, *other_wheels],
                                   wheel_dir / BYTECODE_FILE, cache_dir)
     write_boot_module(stage, lazy_names)
+    # After everything it is made of (pyodide/, wheels/, linesmith_boot.py), before the page.
+    snapshot = add_snapshot(stage, cache_dir, node) if lazy_names is not None else None
     render_page(stage, demos, [calc_wheel.name] + [w.name for w in other_wheels],
-                BYTECODE_FILE if lazy_names is not None else None)
+                BYTECODE_FILE if lazy_names is not None else None, snapshot)
     _write_extra_files(stage, extra_files)
     build_id = write_service_worker(stage)
-    return write_manifest(stage, build_id)
+    return write_manifest(stage, build_id, snapshot)
 
 
 def _swap_into_place(stage: Path, out_dir: Path, attempts: int = 20) -> None:
@@ -101,7 +104,7 @@ def _swap_into_place(stage: Path, out_dir: Path, attempts: int = 20) -> None:
 
 
 def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
-          extra_files: dict[str, bytes] | None = None) -> dict:
+          extra_files: dict[str, bytes] | None = None, *, node: str | None = "auto") -> dict:
     """Build the static site into out_dir and return its manifest.
 
     The site is assembled in a fresh folder beside out_dir and then moved into
@@ -109,7 +112,8 @@ def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
     ({relative path: bytes}) are added to the site before the precache list and
     manifest are written: the offline tests stamp builds with them, the browser
     benchmark adds its bare-boot page to a temporary build. The shipped dist/
-    is built without any.
+    is built without any. node is the Node.js that makes the engine's memory
+    snapshot ("auto": the one on PATH; None: build without a snapshot).
     """
     out_dir = Path(out_dir).resolve()
     tarball = pyodide_tarball(cache_dir)
@@ -119,7 +123,7 @@ def build(out_dir: Path = DIST_DIR, cache_dir: Path = CACHE_DIR,
     stage = Path(tempfile.mkdtemp(prefix=f".{out_dir.name}-new-", dir=out_dir.parent))
     try:
         stage.chmod(0o755)  # mkdtemp makes it private; a served folder should not be
-        manifest = _fill_stage(stage, tarball, other_wheels, cache_dir, extra_files)
+        manifest = _fill_stage(stage, tarball, other_wheels, cache_dir, extra_files, node)
         _swap_into_place(stage, out_dir)
     except BaseException:
         shutil.rmtree(stage, ignore_errors=True)

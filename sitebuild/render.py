@@ -41,8 +41,12 @@ def load_demos() -> list[dict]:
     return demos
 
 
-def render_page(out_dir: Path, demos: list[dict], wheels: list[str], bytecode: str | None = None) -> None:
-    """Write out_dir/index.html; wheels are file names in wheels/ (ours first), bytecode the zip's."""
+def render_page(out_dir: Path, demos: list[dict], wheels: list[str], bytecode: str | None = None,
+                snapshot: dict | None = None) -> None:
+    """Write out_dir/index.html; wheels are file names in wheels/ (ours first), bytecode the zip's.
+
+    snapshot: the engine snapshot's config from sitebuild.snapshot.add_snapshot, or None.
+    """
     import jinja2  # build-time only
 
     env = jinja2.Environment(
@@ -54,6 +58,8 @@ def render_page(out_dir: Path, demos: list[dict], wheels: list[str], bytecode: s
     config = {"pyodide": "./pyodide/", "wheels": [f"./wheels/{w}" for w in wheels]}
     if bytecode:
         config["bytecode"] = f"./wheels/{bytecode}"  # passed on to worker.js by the page's init message
+    if snapshot:
+        config["snapshot"] = snapshot  # worker.js restores it; start.js limits how long that may take
     html = env.get_template("index.html.j2").render(
         csp=CONTENT_SECURITY_POLICY,
         config=config,

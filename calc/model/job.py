@@ -26,7 +26,7 @@ from __future__ import annotations
 
 import math
 
-from ..data.tables import fitting_families, fluid_presets
+from ..data.tables import fitting_families, fluid_presets, seal_words, tube_materials
 from ..physics.fluid import NU_MAX_CST
 from ..physics.valve import valve_constants_one_point, valve_constants_two_points
 from .assembly import assembly_hose
@@ -44,6 +44,7 @@ LINE_ROLES = ("pressure", "return", "feed")
 FITTING_SHAPES = ("straight", "elbow-45", "elbow-90", "tee-run", "tee-branch", "banjo", "bulkhead")
 #: One list of end families for fitting parts and for port ends (``calc/data/fittings.json``).
 FITTING_FAMILIES = tuple(fitting_families())
+_FAMILY_WORDS = tuple((k, v["name"]) for k, v in fitting_families().items())
 TUBE_MATERIALS = ("steel-low-carbon", "stainless-304-annealed", "aluminium-6061-t6", "copper-nickel")
 SEAL_TYPES = ("flare-37", "flare-45", "cone-24", "oring-boss", "metric-oring", "crush-washer",
               "pipe-taper", "hose-barb", "unknown")
@@ -101,7 +102,7 @@ TUBE = Record("tube", "Rigid tube", (
           help="Absolute roughness; 0.0015 mm is the usual value for drawn tubing (from memory)."),
     _bends(), _rise,
     Field("material", "Material", "choice", default="steel-low-carbon", choices=TUBE_MATERIALS,
-          help="Tube material from the part table, for its minimum tensile strength."),
+          choice_words=tuple((k, v["name"]) for k, v in tube_materials().items()), help="Tube material from the part table, for its minimum tensile strength."),
     Field("tensile_mpa", "Minimum tensile strength", unit="stress_mpa", default=None, gt=0, le=3000,
           help="Overrides the material table (from the tube maker's certificate)."),
     Field("max_temp_c", "Maximum temperature", unit="temp_c", default=None, gt=-60, le=600,
@@ -115,7 +116,7 @@ FITTING = Record("fitting", "Fitting or adapter", (
           help="Flow path through the fitting, for its loss coefficient."),
     Field("passage_length_mm", "Passage length", unit="length_mm", default=25.0, ge=0, le=1000,
           help="Length of the narrow passage, for its friction (25 mm is a typical stem, from memory)."),
-    Field("family", "Family", "choice", default=None, choices=FITTING_FAMILIES,
+    Field("family", "Family", "choice", default=None, choices=FITTING_FAMILIES, choice_words=_FAMILY_WORDS,
           help="End family, for the working pressure per size from the part table."),
     Field("dash", "Size (dash)", "integer", default=None, gt=0, le=64,
           help="Dash size of the end, for the family's rating table."),
@@ -171,9 +172,9 @@ PORT = Record("port", "Port", (
     Field("thread", "Port thread", "text", default=None,
           help="Thread designation from the thread tables (for example '5/8-18 UNF' or 'M16x1.5')."),
     Field("seal", "Port seal", "choice", default=None, choices=SEAL_TYPES,
-          help="How the port seals."),
+          choice_words=tuple((k, v) for k, v in seal_words().items() if k in SEAL_TYPES), help="How the port seals."),
     Field("line_end_family", "Line end", "choice", default=None,
-          choices=tuple(f for f in FITTING_FAMILIES if f != "crimp-stem"),
+          choices=tuple(f for f in FITTING_FAMILIES if f != "crimp-stem"), choice_words=_FAMILY_WORDS,
           help="End family of the hose or tube fitting that meets this port; the adapters between them are "
                "planned from the thread tables."),
     Field("line_end_dash", "Line end size (dash)", "integer", default=None, gt=0, le=64,
@@ -241,6 +242,7 @@ DEFAULT_CONDITIONS = [
 
 FLUID = Record("fluid", "Fluid", (
     Field("preset", "Fluid", "choice", default=None, choices=FLUID_PRESETS + ("custom",),
+          choice_words=tuple((k, v["name"]) for k, v in fluid_presets().items()) + (("custom", "custom: datasheet values"),),
           help="A generic fluid from the presets, or 'custom' to give its datasheet values."),
     _name,
     Field("visc_40c_cst", "Viscosity at 40 C", unit="viscosity_cst", default=None, ge=2, le=10000,

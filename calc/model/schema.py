@@ -72,6 +72,9 @@ class Field:
         Allowed values of a ``"choice"`` field.
     help : str
         One or two sentences for the page and the docs.
+    choice_words : tuple of (str, str) pairs, optional
+        Words for people for the choices of a ``"choice"`` field (the choice itself is the key kept in
+        the job); the form and the build sheet show these.
     """
 
     key: str
@@ -88,6 +91,7 @@ class Field:
     choices: tuple = ()
     help: str = ""
     max_length: int = 200
+    choice_words: tuple = ()
 
     def describe(self) -> dict:
         d = {"key": self.key, "label": self.label, "kind": self.kind, "unit": self.unit,
@@ -100,6 +104,8 @@ class Field:
                 d[k] = v
         if self.choices:
             d["choices"] = list(self.choices)
+        if self.choice_words:
+            d["choice_words"] = dict(self.choice_words)
         return d
 
     # -- validation -------------------------------------------------------

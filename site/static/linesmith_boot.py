@@ -35,6 +35,23 @@ def prepare():
 
 LAZY_NAMES = {}  # filled in by build.py
 
+#: Set by the build's snapshot warm-up (sitebuild/snapshot_warmup.py) just before the memory
+#: snapshot: {"engine_build": ..., "version": ...}. None in a plain boot.
+SNAPSHOT_OF = None
+
+
+def snapshot_check(version, engine_build):
+    """After a restore: "" when this runtime is the snapshot of this engine build, else why not."""
+    if SNAPSHOT_OF is None:
+        return "the runtime holds no engine snapshot"
+    import calc
+    if calc.__version__ != version or SNAPSHOT_OF.get("version") != version:
+        return f"the snapshot holds engine {calc.__version__}, the page is of engine {version}"
+    if SNAPSHOT_OF.get("engine_build") != engine_build:
+        return f"the snapshot is of engine build {str(SNAPSHOT_OF.get('engine_build'))[:12]}, " \
+               f"the page of {engine_build[:12]}"
+    return ""
+
 
 def install_lazy_packages(table=None):
     """Put lazy stand-ins for the packages in ``table`` into ``sys.modules``; return their names."""

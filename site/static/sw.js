@@ -9,6 +9,11 @@
 // its hash, so a file of another build is refused), and it takes over once no
 // page of the old build is open (or when the page asks, see offline.js); on
 // activation it deletes the caches of every other build.
+//
+// The engine snapshot (the file FILES marks "snapshot") is only a faster start: a build is kept
+// without it when it cannot be fetched, and the page asks this worker to drop it when the engine
+// could not start from it ("drop-snapshot"). A dropped snapshot is remembered in the cache as a
+// 404 answer, so later visits of this build boot plainly without fetching it again.
 const BUILD = "__LINESMITH_BUILD__";
 const FILES = /*__LINESMITH_FILES__*/[];
 
@@ -17,6 +22,11 @@ const CACHE = `${PREFIX}${BUILD}`;
 const SCOPE = new URL("./", self.location.href);
 const INTEGRITY = new Map(FILES.map((f) => [f.path, f.integrity]));
 const PARALLEL = 4;
+const SNAPSHOTS = FILES.filter((f) => f.snapshot).map((f) => f.path);
+
+function droppedAnswer(reason) {
+  return new Response(`dropped: ${reason}`, { status: 404, headers: { "Content-Type": "text/plain", "X-Linesmith-Dropped": "1" } });
+}
 
 function urlOf(path) {
   return new URL(path, SCOPE).href;
@@ -37,8 +47,15 @@ async function precache() {
       // browser's copy from this visit can be revalidated instead of fetched again.
       const from = file.path === "index.html" ? SCOPE.href : url;
       const request = new Request(from, { cache: "no-cache", integrity: file.integrity || "" });
-      const response = await fetch(request);
-      if (!response.ok) throw new Error(`${file.path} answered ${response.status}`);
+      let response;
+      try {
+        response = await fetch(request);
+        if (!response.ok) throw new Error(`${file.path} answered ${response.status}`);
+      } catch (error) {
+        if (!file.snapshot) throw error;
+        await cache.put(url, droppedAnswer(String(error.message || error))); // the build works without it
+        continue;
+      }
       if (file.path === "manifest.json") {
         // Written after this file, so it has no integrity value: check its build instead.
         const manifest = await response.clone().json();
@@ -71,6 +88,13 @@ self.addEventListener("activate", (event) => {
 self.addEventListener("message", (event) => {
   // Sent by offline.js's applyUpdate(): take over now; the page reloads itself.
   if (event.data && event.data.type === "skip-waiting") self.skipWaiting();
+  // Sent by start.js when the engine could not start from the stored snapshot.
+  if (event.data && event.data.type === "drop-snapshot") {
+    event.waitUntil((async () => {
+      const cache = await caches.open(CACHE);
+      for (const path of SNAPSHOTS) await cache.put(urlOf(path), droppedAnswer(String(event.data.reason || "")));
+    })());
+  }
 });
 
 function pathOf(url) {

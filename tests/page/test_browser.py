@@ -140,6 +140,8 @@ def test_page_reports_failure_readably(built_site, browser):
     """A missing engine wheel must give data-engine="failed" and a message, not a hang."""
     page_context = browser.new_context()
     page_context.route("**/wheels/linesmith-*.whl", lambda route: route.fulfill(status=404, body="gone"))
+    # The engine snapshot would start without the wheel: take it away too, so the plain boot runs.
+    page_context.route("**/engine.snapshot", lambda route: route.fulfill(status=404, body="gone"))
     page = page_context.new_page()
     page.goto(built_site["url"])
     page.wait_for_selector('body[data-engine="failed"]', timeout=BOOT_TIMEOUT_MS)

@@ -39,12 +39,15 @@ export function resultPart(result, lineIndex, jobPart) {
   return (line && (line.parts || []).find((p) => p.job_part === jobPart)) || null;
 }
 
+const CHOICE_WORDS = new Map(); // field key -> {choice: words}, from the job model
+
 // The unit kind of a job field, by its key (keys carry their unit: one unit per key in the job model).
 const JOB_UNITS = (() => {
   const out = new Map();
   const walk = (node) => {
     if (!node || typeof node !== "object") return;
     if (typeof node.key === "string" && "unit" in node && !out.has(node.key)) out.set(node.key, node.unit);
+    if (typeof node.key === "string" && node.choice_words) CHOICE_WORDS.set(node.key, node.choice_words);
     for (const f of node.fields || []) walk(f);
     if (node.item) walk(node.item);
     for (const v of Object.values(node.variants || {})) walk(v);
@@ -57,10 +60,16 @@ export function jobFieldUnit(path) {
   return JOB_UNITS.get(path.split(".").pop().replace(/\[\d+\]$/, "")) || null;
 }
 
-// An edit's value in words, in the display units: "1.042 m", "-8", "jic-37".
+// A choice in words, as the job model gives them ("flare-37" is "flare cone (37 deg)").
+export function choiceWords(key, value) {
+  const words = CHOICE_WORDS.get(key);
+  return (words && words[value]) || String(value);
+}
+
+// An edit's value in words, in the display units: "1.042 m", "-8", "37 deg flare (JIC)".
 export function editValue(path, value) {
   const unit = jobFieldUnit(path);
   if (typeof value === "number" && unit) return `${Number(fmt(value, unit, 6)).toString()} ${unitLabel(unit)}`.trim();
   if (path.endsWith("dash") && typeof value === "number") return `-${value}`;
-  return String(value);
+  return typeof value === "string" ? choiceWords(path.split(".").pop().replace(/\[\d+\]$/, ""), value) : String(value);
 }

@@ -5,7 +5,7 @@
 // Shown only in print (and by the "Print build sheet" button).
 import { badge, el, readJSON } from "./util.js";
 import { fmt, unitLabel } from "./units.js";
-import { declared, partDash } from "./declared.js";
+import { choiceWords, declared, partDash } from "./declared.js";
 import { cautionsList } from "./results.js";
 import { shop } from "./precision.js";
 import { routeSketch } from "./sketch.js";
@@ -50,7 +50,7 @@ function portText(port) {
   if (!port) return "not described";
   const bits = [port.label || "(port not named)"];
   if (port.thread) bits.push(`thread ${port.thread}`);
-  if (port.seal) bits.push(`seal ${port.seal}`);
+  if (port.seal) bits.push(`seal: ${choiceWords("seal", port.seal)}`);
   if (port.line_end_family) {
     let size = "";
     if (port.line_end_dash) size = ` -${port.line_end_dash}`;
