@@ -204,6 +204,10 @@ def test_print_flows_lines_together_with_one_disclaimer_and_shop_precision(page,
     try:
         body = page.locator("body").inner_text()
         assert body.count("Check every rating against the maker's data") == 1
+        # end families in words from the job model (calc.data fittings table names), never their keys
+        from calc.data.tables import fitting_families
+        assert fitting_families()["jic-37"]["name"] in page.locator("#sheet").inner_text()
+        assert "jic-37" not in page.locator("#sheet").inner_text()
         for caution in CAUTIONS:
             assert body.count(caution) == 1, caution
         style = page.evaluate("""() => {

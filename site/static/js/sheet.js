@@ -34,7 +34,7 @@ export function partSpec(p, dash = "", cutMm = null) {
       + (bends.length ? `, ${bends.length} bend(s) at ${bends.join(", ")}` : "");
   }
   if (p.kind === "fitting") {
-    const fam = p.family ? `${p.family}${p.dash ? ` -${p.dash}` : ""}` : "family not named";
+    const fam = p.family ? `${choiceWords("family", p.family)}${p.dash ? ` -${p.dash}` : ""}` : "family not named";
     const end = p.end && p.end !== "inline" ? `, assembly ${p.end}` : "";
     const orient = typeof p.orientation_deg === "number" && p.orientation_deg !== 0 ? `, clocked ${shop(p.orientation_deg, "angle")}` : "";
     return `Fitting ${p.shape || "straight"}, ${fam}, bore ${shop(p.bore_mm, "bore")}${end}${orient}`
@@ -56,7 +56,7 @@ function portText(port) {
     if (port.line_end_dash) size = ` -${port.line_end_dash}`;
     else if (typeof port.line_end_tube_od_mm === "number") size = ` tube OD ${shop(port.line_end_tube_od_mm, "tube_size")}`;
     else if (port.line_end_thread) size = ` ${port.line_end_thread}`;
-    bits.push(`line end ${port.line_end_family}${size}`);
+    bits.push(`line end ${choiceWords("line_end_family", port.line_end_family)}${size}`);
   }
   return bits.join("; ");
 }
@@ -197,7 +197,7 @@ function orderList(order) {
   if (hoses.length) box.append(table(O("hoses"), [O("hoses[].class"), O("hoses[].bore_mm"), O("hoses[].total_mm"), O("hoses[].pieces"), O("hoses[].lines")], hoses));
   const tubes = order.tubes.map((t) => [t.material, shop(t.od_mm, "tube_size"), shop(t.wall_mm, "tube_size"), shop(t.total_mm / 1000, "order_length"), `${t.pieces}`, used(t)]);
   if (tubes.length) box.append(table(O("tubes"), [O("tubes[].material"), O("tubes[].od_mm"), O("tubes[].wall_mm"), O("tubes[].total_mm"), O("tubes[].pieces"), O("tubes[].lines")], tubes));
-  const fits = order.fittings.map((f) => [`${f.family || "family not named"}${f.dash ? ` -${f.dash}` : ""}`, f.shape, shop(f.bore_mm, "bore"), `${f.count}`, used(f)]);
+  const fits = order.fittings.map((f) => [`${f.family ? choiceWords("family", f.family) : "family not named"}${f.dash ? ` -${f.dash}` : ""}`, f.shape, shop(f.bore_mm, "bore"), `${f.count}`, used(f)]);
   if (fits.length) box.append(table(O("fittings"), [O("fittings[].family"), O("fittings[].shape"), O("fittings[].bore_mm"), O("fittings[].count"), O("fittings[].lines")], fits));
   const ads = order.adapters.map((a) => [a.name, `${a.count}`, used(a)]);
   if (ads.length) box.append(table(O("adapters"), [O("adapters[].name"), O("adapters[].count"), O("adapters[].lines")], ads));
