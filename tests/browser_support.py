@@ -35,6 +35,11 @@ class NoChromium(RuntimeError):
     """No Chromium at any of the places find_chromium looks (as opposed to a bad $LINESMITH_CHROMIUM)."""
 
 
+# Screenshots of the main page states, for a person to look at (not compared): $LINESMITH_SCREENS, else
+# test-screens/ in the checkout (ignored by git), so a CI run on a clean clone leaves them beside its code.
+SHOTS = Path(os.environ.get("LINESMITH_SCREENS") or Path(__file__).resolve().parents[1] / "test-screens")
+
+
 def find_chromium(playwright) -> tuple[str | None, str]:
     """Return (executable_path or None for Playwright's own, description).
 

@@ -15,8 +15,6 @@ from __future__ import annotations
 import copy
 import json
 import math
-import os
-import tempfile
 import time
 from pathlib import Path
 
@@ -27,7 +25,7 @@ from sitebuild.common import BuildError
 from sitebuild.render import load_demos
 
 from ..browser_support import (
-    FAULT_ONCE_JS, launched_chromium, parse_shown_number, serve_directory)
+    FAULT_ONCE_JS, SHOTS, launched_chromium, parse_shown_number, serve_directory)
 
 BOOT_TIMEOUT_MS = 120_000
 # An invented circuit: a pressure line of fitting, hose and elbow; a return; a feed.
@@ -51,8 +49,6 @@ JOB = {
             {"kind": "fitting", "bore_mm": 11.0, "shape": "elbow-90"}]},
     ],
 }
-# Screenshots for a human look at the layout (not compared): $LINESMITH_SCREENS or the temp folder.
-SHOTS = Path(os.environ.get("LINESMITH_SCREENS") or Path(tempfile.gettempdir()) / "linesmith-screens")
 
 
 @pytest.fixture(scope="module")

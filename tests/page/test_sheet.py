@@ -10,11 +10,8 @@ from __future__ import annotations
 import copy
 import json
 import math
-import os
 import re
-import tempfile
 import time
-from pathlib import Path
 
 import pytest
 
@@ -26,9 +23,8 @@ from sitebuild.assemble import build
 from sitebuild.common import BuildError
 from sitebuild.render import load_demos
 
-from ..browser_support import launched_chromium, serve_directory
+from ..browser_support import SHOTS, launched_chromium, serve_directory
 
-SHOTS = Path(os.environ.get("LINESMITH_SCREENS") or Path(tempfile.gettempdir()) / "linesmith-screens")
 HEADER = {"customer": "Invented Customer Ltd", "vehicle": "invented light truck, pump swap", "job_number": "J-0042",
           "date": "2026-12-02"}
 PSI_PER_BAR = UNITS["pressure_bar"][2]

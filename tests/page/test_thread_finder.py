@@ -3,7 +3,7 @@ that follow the thread's gender, a pitch of "18" read as threads per inch, the s
 this port" writing the thread, the seal and the line end as one edit that can be undone (the engine then
 re-plans the adapters), and bad readings refused with the field named. Every answer read off the page is
 compared with calc (CPython) on the same input. Screenshots (1280x720 and a 390 px phone) go to
-$LINESMITH_SCREENS or the temp folder, for a person to look at."""
+$LINESMITH_SCREENS or test-screens/ in the checkout, for a person to look at."""
 
 from __future__ import annotations
 

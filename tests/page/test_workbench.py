@@ -8,9 +8,6 @@ One build, one server and one Chromium for the module; each test has its own bro
 from __future__ import annotations
 
 import json
-import os
-import tempfile
-from pathlib import Path
 
 import pytest
 
@@ -19,10 +16,9 @@ from calc.data.tables import starting_job
 from sitebuild.assemble import build
 from sitebuild.common import BuildError
 
-from ..browser_support import launched_chromium, serve_directory
+from ..browser_support import SHOTS, launched_chromium, serve_directory
 
 BOOT_TIMEOUT_MS = 120_000
-SHOTS = Path(os.environ.get("LINESMITH_SCREENS") or Path(tempfile.gettempdir()) / "linesmith-screens")
 
 
 @pytest.fixture(scope="module")
