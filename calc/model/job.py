@@ -2,7 +2,7 @@
 
 A job is a JSON document, ``"version": 1``. Every key that carries a physical
 quantity ends with its unit (``bore_mm``, ``relief_bar``). The engine converts
-to SI on entry. The validator (``validate_job``), the command line, the page's
+to SI on entry. The validator (``calc.model.job_rules.validate_job``), the command line, the page's
 form (rendered at build time from ``describe_job()``) and the field reference in
 DEVELOPERS.md all read the declaration below; add a field here and it appears
 everywhere.
@@ -24,18 +24,12 @@ steady-temperature estimate, to be replaced by the user's own.
 """
 from __future__ import annotations
 
-import math
-
 from ..data.tables import fitting_families, fluid_presets, seal_words, tube_materials
-from ..physics.fluid import NU_MAX_CST
-from ..physics.valve import valve_constants_one_point, valve_constants_two_points
-from .assembly import assembly_hose
-from .fluid import resolve_fluid, state_of
-from .schema import REQUIRED, Field, ListOf, Record, Variants, validate, Problem
+from .schema import REQUIRED, Field, ListOf, Record, Variants
 
 __all__ = ["JOB_VERSION", "JOB", "PART", "PORT", "LINE", "CONDITION", "DEFAULT_CONDITIONS", "FLUID_PRESETS",
            "LINE_ROLES", "FITTING_SHAPES", "FITTING_FAMILIES", "TUBE_MATERIALS", "SEAL_TYPES", "describe_job",
-           "validate_job", "gear_constants", "field_label", "path_words", "field_unit"]
+           "field_label", "path_words", "field_unit"]
 
 JOB_VERSION = 1
 
@@ -494,155 +488,3 @@ def describe_job() -> dict:
             "fluid_presets": list(FLUID_PRESETS),
             "fluid_preset_values": {k: {f: v for f, v in presets[k].items() if f not in ("name", "source")}
                                     for k in FLUID_PRESETS}}
-
-
-def validate_job(job) -> tuple[dict | None, list[Problem], list[Problem]]:
-    """Validate a job and fill its defaults.
-
-    Checks the structure against ``JOB``, then the rules that span fields
-    (a fluid either names a preset or gives its datasheet values; a tube wall
-    under half its diameter; duty shares adding to 100 %; ...).
-
-    Returns ``(normalised_job, problems, warnings)``; ``normalised_job`` is
-    ``None`` when there are problems.
-
-    Examples
-    --------
-    >>> _, problems, _ = validate_job({"version": 1})
-    >>> [str(p) for p in problems][:2]
-    ['fluid: is missing', 'pump: is missing']
-    """
-    version = job.get("version") if isinstance(job, dict) else None
-    if isinstance(version, int) and not isinstance(version, bool) and version != JOB_VERSION \
-            and abs(version) < 10 ** 12:
-        return None, [Problem("version", f"this file is version {version}; this build reads job files of "
-                                         f"version {JOB_VERSION}")], []
-    out, problems, warnings = validate(JOB, job)
-    if not problems:
-        _cross_checks(out, problems, warnings)
-    return (None if problems else out), problems, warnings
-
-
-def _cross_checks(job: dict, problems: list, warnings: list) -> None:
-    """The rules that span fields; ``job["fluid"]`` is replaced by its resolved record."""
-    _fluid_checks(job, problems, warnings)
-    if sum(1 for ln in job["lines"] if ln["role"] == "pressure") == 0:
-        warnings.append(Problem("lines", "no pressure line listed: the circuit pressure at neutral is "
-                                         "only the gear and return losses"))
-    for i, ln in enumerate(job["lines"]):
-        _line_checks(i, ln, problems)
-    pump = job["pump"]
-    if pump["overall_efficiency"] is not None and pump["overall_efficiency"] > pump["volumetric_efficiency"]:
-        problems.append(Problem("pump.overall_efficiency", "must be at most the volumetric efficiency (overall = "
-                                                           "volumetric x mechanical efficiency)"))
-    duty = [c["duty_percent"] for c in job["conditions"]]
-    total = sum(duty)
-    if total > 0 and abs(total - 100.0) > 0.01:
-        problems.append(Problem("conditions", f"the shares of time (duty_percent) add up to {total:g} %, "
-                                              "not 100 %"))
-    _cooler_checks(job["thermal"]["cooler"], problems)
-    _gear_checks(job["gear"], job["fluid"], problems)
-
-
-#: ASTM D341 slopes B of real hydraulic fluids: about 4.5 for a low-VI naphthenic oil, 3.7 for VI-100 mineral
-#: oil, 2.5 for synthetic steering fluids, 1.6 for silicone fluids (computed from recalled datasheet pairs,
-#: from memory); outside this range two datasheet points are more likely a typing slip than a fluid.
-WALTHER_SLOPE_RANGE = (1.2, 5.0)
-
-
-def _fluid_checks(job: dict, problems: list, warnings: list) -> None:
-    fl = job["fluid"]
-    if fl["preset"] in (None, "custom"):
-        for k in ("visc_40c_cst", "visc_100c_cst", "density_15c_kg_m3", "specific_heat_j_kgk"):
-            if fl[k] is None:
-                problems.append(Problem(f"fluid.{k}", "is missing (give it, or choose a preset)"))
-    if fl["visc_40c_cst"] is not None and fl["visc_100c_cst"] is not None:
-        if fl["visc_100c_cst"] >= fl["visc_40c_cst"]:
-            problems.append(Problem("fluid.visc_100c_cst", "must be lower than the viscosity at 40 C"))
-    if problems:
-        return
-    job["fluid"] = resolve_fluid(fl)
-    slope = job["fluid"]["walther_b"]
-    if not WALTHER_SLOPE_RANGE[0] <= slope <= WALTHER_SLOPE_RANGE[1]:
-        warnings.append(Problem("fluid.visc_100c_cst",
-                                f"{job['fluid']['visc_40c_cst']:g} cSt at 40 C and {job['fluid']['visc_100c_cst']:g} "
-                                f"cSt at 100 C imply a viscosity-temperature slope (ASTM D341 constant B = "
-                                f"{slope:.2f}) outside what real hydraulic fluids show (about "
-                                f"{WALTHER_SLOPE_RANGE[0]:g} to {WALTHER_SLOPE_RANGE[1]:g}); check the datasheet values"))
-    for i, c in enumerate(job["conditions"]):
-        try:
-            nu = state_of(job["fluid"], c["fluid_temp_c"]).nu_m2_s * 1e6
-        except ValueError:
-            nu = math.inf
-        if nu > NU_MAX_CST:
-            problems.append(Problem(f"conditions[{i}].fluid_temp_c",
-                                    f"the fluid's viscosity at {c['fluid_temp_c']:g} C would be above "
-                                    f"{NU_MAX_CST:,.0f} cSt: it would not flow (check the "
-                                    "fluid's datasheet values)"))
-
-
-def _line_checks(i: int, ln: dict, problems: list) -> None:
-    for k, p in enumerate(ln["parts"]):
-        path = f"lines[{i}].parts[{k}]"
-        if p["kind"] == "tube" and p["wall_mm"] * 2 >= p["od_mm"]:
-            problems.append(Problem(f"{path}.wall_mm", "must be less than half the outside diameter"))
-        if p["kind"] == "hose" and p["bore_mm"] is None and (p["class"] is None or p["dash"] is None):
-            problems.append(Problem(f"{path}.bore_mm", "is missing (give a bore, or a hose class and "
-                                                       "dash size)"))
-        if p["kind"] == "device" and p["scaling"] == "viscous" and p["at_visc_cst"] is None:
-            problems.append(Problem(f"{path}.at_visc_cst", "is missing (viscous scaling needs the "
-                                                           "viscosity at which the drop was measured)"))
-        if p["kind"] == "hose" and p["length_m"] is None and not (
-                k == assembly_hose(ln["parts"]) and (ln["route_points_mm"] or ln["overall_length_mm"])):
-            problems.append(Problem(f"{path}.length_m", "is missing: give the hose's length, or the line's route "
-                                                        "points or overall assembly length for its assembly hose"))
-    if ln["route_points_mm"] is not None and len(ln["route_points_mm"]) == 1:
-        problems.append(Problem(f"lines[{i}].route_points_mm", "needs at least two points"))
-
-
-def _cooler_checks(cooler: dict, problems: list) -> None:
-    if cooler["type"] == "rating" and cooler["w_per_k"] is None:
-        problems.append(Problem("thermal.cooler.w_per_k", "is missing (the cooler type is 'rating')"))
-    if cooler["type"] == "tube" and cooler["tube_length_m"] is None:
-        problems.append(Problem("thermal.cooler.tube_length_m", "is missing (the cooler type is 'tube')"))
-    if cooler["type"] == "tube" and cooler["tube_wall_mm"] * 2 >= cooler["tube_od_mm"]:
-        problems.append(Problem("thermal.cooler.tube_wall_mm", "must be less than half the outside diameter"))
-    if cooler["fins_per_inch"] > 0:
-        if cooler["fin_od_mm"] is None:
-            problems.append(Problem("thermal.cooler.fin_od_mm", "is missing (fins_per_inch is more than 0)"))
-        elif cooler["fin_od_mm"] <= cooler["tube_od_mm"]:
-            problems.append(Problem("thermal.cooler.fin_od_mm", "must be larger than the tube outside "
-                                                                "diameter"))
-        if cooler["fin_thickness_mm"] * cooler["fins_per_inch"] >= 25.4:
-            problems.append(Problem("thermal.cooler.fin_thickness_mm", "the fins would fill the tube: fin "
-                                                                       "thickness x fins per inch must be "
-                                                                       "under 25.4 mm"))
-
-
-def _gear_checks(gear: dict, fluid: dict, problems: list) -> None:
-    if gear["cold_drop_bar"] is None:
-        return
-    if gear["cold_at_temp_c"] is None:
-        problems.append(Problem("gear.cold_at_temp_c", "is missing (a second measured drop needs its fluid "
-                                                       "temperature)"))
-    elif abs(gear["cold_at_temp_c"] - gear["at_temp_c"]) < 10.0:
-        problems.append(Problem("gear.cold_at_temp_c", "must be at least 10 K from the first measurement's "
-                                                       "temperature, so the two points tell viscosity apart"))
-    elif "walther_a" in fluid and gear_constants(gear, fluid) is None:
-        problems.append(Problem("gear.cold_drop_bar", "the two measured drops give no valve whose drop rises "
-                                                      "with viscosity: check both points and their temperatures"))
-
-
-def gear_constants(gear, fluid) -> tuple[float, float] | None:
-    """The valve's constants (a, b) of ``calc.physics.valve`` for a validated gear record and a resolved
-    fluid: through both measured points when a second is given, else the orifice model through the
-    one point; None when two points give no positive pair."""
-    st0 = state_of(fluid, gear["at_temp_c"])
-    q0 = gear["at_flow_lpm"] / 60000.0
-    p0 = (gear["neutral_drop_bar"] * 1e5, q0, st0.nu_m2_s, st0.rho_kg_m3)
-    if gear.get("cold_drop_bar") is None:
-        return valve_constants_one_point(*p0)
-    st1 = state_of(fluid, gear["cold_at_temp_c"])
-    q1 = (gear.get("cold_at_flow_lpm") or gear["at_flow_lpm"]) / 60000.0
-    return valve_constants_two_points(p0, (gear["cold_drop_bar"] * 1e5, q1, st1.nu_m2_s, st1.rho_kg_m3))
-

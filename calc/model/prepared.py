@@ -12,7 +12,8 @@ from dataclasses import dataclass
 
 from ..data.frozen import FrozenDict, freeze, thaw
 from ..data.tables import find_class, fitting_families, hose_classes, size_row
-from .job import PART, validate_job
+from .job import PART
+from .job_rules import validate_job
 from .schema import Problem, validate
 
 __all__ = ["Part", "PreparedLine", "PreparedJob", "prepare", "prepare_line_parts", "changed_part", "sizes_text"]

@@ -33,7 +33,7 @@ from fluids.numerics import brenth
 
 from ..data.practice import INLET_FLOOR_BAR, INLET_MIN_BAR
 from ..model.fluid import state_of
-from ..model.job import gear_constants
+from ..model.job_rules import gear_constants
 from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa
 from ..physics.valve import valve_drop_pa
 from .line import compile_line, line_flow

@@ -5,7 +5,8 @@ import math
 import pytest
 
 from calc import evaluate
-from calc.model.job import DEFAULT_CONDITIONS, JOB, describe_job, validate_job
+from calc.model.job import DEFAULT_CONDITIONS, JOB, describe_job
+from calc.model.job_rules import validate_job
 
 from ..jobs import demo_paths, simple_job
 

@@ -3,7 +3,8 @@ import json
 
 from calc import evaluate
 from calc.edges.jobfile import read_job_text
-from calc.model.job import JOB_VERSION, describe_job, validate_job
+from calc.model.job import JOB_VERSION, describe_job
+from calc.model.job_rules import validate_job
 
 from ..jobs import demo_job, errors_of, simple_job
 

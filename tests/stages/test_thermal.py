@@ -10,7 +10,7 @@ from hypothesis import given, settings, strategies as st
 
 from calc import evaluate
 from calc.model.fluid import state_of
-from calc.model.job import validate_job
+from calc.model.job_rules import validate_job
 from calc.physics.lumped import STEADY_TOL_K
 
 from ..jobs import demo_job, simple_job
