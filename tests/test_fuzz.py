@@ -63,6 +63,9 @@ def _valid(f):
             coordinate = st.floats(-2000, 2000, allow_nan=False).map(lambda x: 0.0 if abs(x) < 1e-9 else x)
             pt = st.lists(coordinate, min_size=3, max_size=3)
             return st.lists(pt, min_size=2, max_size=6)
+        if f.kind == "table":
+            row = st.tuples(*(_number(c) for c in f.columns)).map(list)
+            return st.lists(row, min_size=f.min_rows, max_size=min(f.max_rows, 5))
     if isinstance(f, ListOf):
         return st.lists(_valid(f.item), min_size=max(f.min_items, 1), max_size=min(f.max_items, 3))
     if isinstance(f, Record):
@@ -98,6 +101,23 @@ def _consistent_part(part: dict, role: str) -> None:
         part.pop("dash", None)
 
 
+def _consistent_pump(pump: dict) -> None:
+    """A flow-control setting or a flow table whose speeds rise and whose flows the pump can deliver; the pulley
+    ratio or both pulley diameters."""
+    table = pump.get("flow_table_rpm_lpm")
+    if table:
+        eta = pump.get("volumetric_efficiency", 0.9)
+        rows = sorted({round(r[0], 3): r for r in table}.values())
+        pump["flow_table_rpm_lpm"] = [[rpm, min(q, pump["displacement_cc_rev"] * rpm / 1000.0 * eta)] for rpm, q in rows]
+        if len(rows) < 2 or any(q < 1e-3 for _, q in pump["flow_table_rpm_lpm"]):
+            del pump["flow_table_rpm_lpm"]
+    if not pump.get("flow_table_rpm_lpm"):
+        pump.setdefault("flow_limit_lpm", 8.0)
+    if "pulley_ratio" in pump or ("crank_pulley_mm" in pump) != ("pump_pulley_mm" in pump):
+        pump.pop("crank_pulley_mm", None)
+        pump.pop("pump_pulley_mm", None)
+
+
 def consistent(job: dict) -> dict:
     """The job made to follow the rules that span fields (calc.model.job._cross_checks, table lookups)."""
     job["version"] = 1
@@ -110,6 +130,7 @@ def consistent(job: dict) -> dict:
     pump = job["pump"]
     if pump.get("overall_efficiency", 0) > pump.get("volumetric_efficiency", 0.9):
         pump["overall_efficiency"] = pump.get("volumetric_efficiency", 0.9)
+    _consistent_pump(pump)
     for key in ("cold_drop_bar", "cold_at_flow_lpm", "cold_at_temp_c"):
         job["gear"].pop(key, None)
     for c in job.get("conditions", []):

@@ -256,12 +256,27 @@ FLUID = Record("fluid", "Fluid", (
 PUMP = Record("pump", "Pump and drive", (
     Field("displacement_cc_rev", "Displacement", unit="displacement_cc", default=REQUIRED, ge=0.5, le=200,
           warn_below=4, warn_above=40, help="Geometric displacement per pump revolution."),
-    Field("pulley_ratio", "Pulley ratio (pump : crank speed)", unit="ratio", default=1.0, ge=0.05, le=5,
-          help="Pump speed divided by crankshaft speed."),
+    Field("pulley_ratio", "Pulley ratio (pump : crank speed)", unit="ratio", default=None, ge=0.05, le=5,
+          help="Pump speed divided by crankshaft speed. Empty: worked out from the two pulley diameters when "
+               "they are given, else 1 (pump at crank speed)."),
+    Field("crank_pulley_mm", "Crank pulley diameter", unit="length_mm", default=None, gt=10, le=1000,
+          help="Effective diameter of the crankshaft pulley that drives the pump's belt; with the pump pulley's, "
+               "it gives the pulley ratio (crank diameter over pump diameter)."),
+    Field("pump_pulley_mm", "Pump pulley diameter", unit="length_mm", default=None, gt=10, le=1000,
+          help="Effective diameter of the pump's pulley, measured the same way as the crank pulley."),
     Field("volumetric_efficiency", "Volumetric efficiency", unit="ratio", default=0.9, ge=0.05, le=1,
           help="Delivered over geometric flow; 0.85-0.95 is typical of vane pumps (from memory)."),
-    Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=REQUIRED, ge=0.1, le=500,
-          help="Most flow the flow-control valve lets out; the rest recirculates in the pump."),
+    Field("flow_limit_lpm", "Flow-control setting", unit="flow_lpm", default=None, ge=0.1, le=500,
+          help="Most flow the flow-control valve lets out; the rest recirculates in the pump. Needed unless the "
+               "pump's flow table is given, which takes its place."),
+    Field("flow_table_rpm_lpm", "Flow table (pump speed, delivered flow)", "table", default=None,
+          columns=(Field("pump_rpm", "Pump speed", unit="speed_rpm", gt=0, le=20000),
+                   Field("delivered_lpm", "Delivered flow", unit="flow_lpm", gt=0, le=500)),
+          min_rows=2, max_rows=40,
+          help="The pump maker's flow against pump speed, for a pump whose flow falls at high speed. Between "
+               "rows the flow is read on a straight line, beyond the first and last rows it holds their value, "
+               "and it is never more than the pump delivers at that speed. Pump speed = engine speed x pulley "
+               "ratio."),
     Field("metering_drop_bar", "Flow-control metering drop", unit="pressure_bar", default=0.0, ge=0, le=50,
           help="Drop across the flow-control valve's metering orifice while it limits the flow; the pump works "
                "against the outlet pressure plus this drop. Not counted unless given (0), so the heat is a lower "
@@ -289,6 +304,12 @@ GEAR = Record("gear", "Steering gear", (
           help="Flow of the second measurement; empty: the same flow as the first."),
     Field("cold_at_temp_c", "Second point: at fluid temperature", unit="temp_c", default=None, ge=-50, le=200,
           help="Fluid temperature of the second measurement; at least 10 K from the first."),
+    Field("rated_bar", "Gear's maximum working pressure", unit="pressure_bar", default=None, gt=0, le=500,
+          help="The highest pressure the gear is built for, from its maker; the pump's relief setting must not "
+               "exceed it."),
+    Field("flow_needed_lpm", "Flow the gear needs for full assist", unit="flow_lpm", default=None, gt=0, le=200,
+          help="Flow the gear needs for full assist when parking (from its maker); checked against the pump's "
+               "flow at the slowest operating point, and against the flow-control setting."),
 ))
 
 RATINGS = Record("ratings", "Rating settings", (
@@ -448,6 +469,8 @@ def path_words(path: str, job=None) -> str:
     'Centre-line radius of bend 1 of part 2 of line 1'
     >>> path_words("lines[2].to_port.line_end_dash"), path_words("pump.relief_bar")
     ('Line end size (dash) of the end port of line 3', 'Relief setting')
+    >>> path_words("pump.flow_table_rpm_lpm[2][1]")
+    'Delivered flow in row 3 of Flow table (pump speed, delivered flow)'
     """
     from .edits import parse_path  # same layer: the path syntax is the edits'
     spec, value, where, label = JOB, job, [], None
@@ -456,6 +479,12 @@ def path_words(path: str, job=None) -> str:
     except ValueError:  # a key no field has (named printably by the validator): the path is all there is
         return path
     for k, step in enumerate(steps):
+        if isinstance(step, int) and isinstance(spec, Field) and spec.columns:  # a table's row, then its column
+            row = f"row {step + 1} of {spec.label}"
+            column = steps[k + 1] if k + 1 < len(steps) else None
+            if isinstance(column, int) and column < len(spec.columns):
+                row = f"{spec.columns[column].label} in {row}"
+            return " of ".join([row] + where[::-1])
         if isinstance(step, int):
             where.append(f"{_ITEM_WORDS.get(steps[k - 1], 'item')} {step + 1}")
             value = value[step] if isinstance(value, (list, tuple)) and step < len(value) else None

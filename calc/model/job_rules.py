@@ -10,10 +10,11 @@ from __future__ import annotations
 import math
 
 from ..physics.fluid import NU_MAX_CST
+from ..physics.pump import pulley_ratio_from_diameters
 from ..physics.valve import valve_constants_one_point, valve_constants_two_points
 from .assembly import assembly_hose
 from .fluid import resolve_fluid, state_of
-from .job import JOB, JOB_VERSION
+from .job import JOB, JOB_VERSION, PUMP
 from .schema import Problem, validate
 
 __all__ = ["validate_job", "gear_constants", "WALTHER_SLOPE_RANGE"]
@@ -55,6 +56,8 @@ def _cross_checks(job: dict, problems: list, warnings: list) -> None:
     for i, ln in enumerate(job["lines"]):
         _line_checks(i, ln, problems)
     pump = job["pump"]
+    _pulley_checks(pump, problems)
+    _flow_table_checks(pump, problems, warnings)
     if pump["overall_efficiency"] is not None and pump["overall_efficiency"] > pump["volumetric_efficiency"]:
         problems.append(Problem("pump.overall_efficiency", "must be at most the volumetric efficiency (overall = "
                                                            "volumetric x mechanical efficiency)"))
@@ -65,6 +68,63 @@ def _cross_checks(job: dict, problems: list, warnings: list) -> None:
                                               "not 100 %"))
     _cooler_checks(job["thermal"]["cooler"], problems)
     _gear_checks(job["gear"], job["fluid"], problems)
+
+
+#: Pulley diameters and a pulley ratio that differ by more than this share are two different drives, [-] (a
+#: stated tolerance: a measured diameter is good to about 1 %).
+PULLEY_TOLERANCE = 0.01
+
+
+def _pulley_checks(pump: dict, problems: list) -> None:
+    """The pulley ratio from the two diameters when it is not given (else 1); the two ways must agree."""
+    crank, driven = pump["crank_pulley_mm"], pump["pump_pulley_mm"]
+    if (crank is None) != (driven is None):
+        missing = "pump_pulley_mm" if driven is None else "crank_pulley_mm"
+        problems.append(Problem(f"pump.{missing}", "is missing: the pulley ratio needs both pulley diameters"))
+        return
+    from_diameters = None if crank is None else pulley_ratio_from_diameters(crank, driven)
+    ratio_field = next(f for f in PUMP.fields if f.key == "pulley_ratio")
+    if from_diameters is not None and not ratio_field.ge <= from_diameters <= ratio_field.le:
+        problems.append(Problem("pump.pump_pulley_mm", f"with the {crank:g} mm crank pulley gives a pulley ratio of "
+                                                       f"{from_diameters:.3g}, outside {ratio_field.ge:g} to "
+                                                       f"{ratio_field.le:g}: check both diameters"))
+        return
+    if pump["pulley_ratio"] is None:
+        pump["pulley_ratio"] = 1.0 if from_diameters is None else from_diameters
+    elif from_diameters is not None and abs(from_diameters / pump["pulley_ratio"] - 1.0) > PULLEY_TOLERANCE:
+        problems.append(Problem("pump.pulley_ratio", f"is {pump['pulley_ratio']:g}, but the pulley diameters "
+                                                     f"({crank:g} mm crank, {driven:g} mm pump) give "
+                                                     f"{from_diameters:.3f}: give one or the other"))
+
+
+def _flow_table_checks(pump: dict, problems: list, warnings: list) -> None:
+    """A flow-control setting or a flow table; the table's speeds rising, its flows within the displacement."""
+    table = pump["flow_table_rpm_lpm"]
+    if table is None:
+        if pump["flow_limit_lpm"] is None:
+            problems.append(Problem("pump.flow_limit_lpm", "is missing: give the flow-control setting, or the "
+                                                           "pump's flow table"))
+        return
+    if pump["flow_limit_lpm"] is not None:
+        warnings.append(Problem("pump.flow_limit_lpm", "is not used: the pump's flow table gives the delivered "
+                                                       "flow at each speed"))
+    path = "pump.flow_table_rpm_lpm"
+    for i, (rpm, lpm) in enumerate(table):
+        if i and rpm <= table[i - 1][0]:
+            problems.append(Problem(f"{path}[{i}][0]", f"must be above the speed of row {i} ({table[i - 1][0]:g} "
+                                                       "rpm): the rows go from slow to fast"))
+            continue
+        displaced = pump["displacement_cc_rev"] * rpm / 1000.0
+        if lpm > displaced * (1.0 + 1e-9):
+            problems.append(Problem(f"{path}[{i}][1]", f"{lpm:g} L/min at {rpm:g} rpm is more than the pump "
+                                                       f"displaces at that speed ({displaced:.2f} L/min = "
+                                                       "displacement x pump speed): check the row or the "
+                                                       "displacement"))
+        elif lpm > displaced * pump["volumetric_efficiency"] * (1.0 + 1e-9):
+            warnings.append(Problem(f"{path}[{i}][1]", f"{lpm:g} L/min at {rpm:g} rpm is more than the pump "
+                                                       f"delivers there at its volumetric efficiency "
+                                                       f"({displaced * pump['volumetric_efficiency']:.2f} L/min); "
+                                                       "the engine uses the smaller: check the efficiency"))
 
 
 #: ASTM D341 slopes B of real hydraulic fluids: about 4.5 for a low-VI naphthenic oil, 3.7 for VI-100 mineral

@@ -443,10 +443,17 @@ FLUID = (
     num("max_temp_c", "temp_c", "Fluid temperature limit"), text("source", "Source of the values"),
 )
 PUMP_CURVE = (
-    num("flow_limit_lpm", "flow_lpm", "Flow-control setting"),
+    num("flow_limit_lpm", "flow_lpm", "Flow-control setting", nullable=True, help="None when the pump's flow table "
+                                                                                  "takes its place."),
     lst("points", "Delivered flow against engine speed", rec("", "Point", (
         num("engine_rpm", "speed_rpm", "Engine speed"),
         num("delivered_lpm", "flow_lpm", "Delivered flow")))),
+    lst("table", "Pump's flow table", rec("", "Row", (
+        num("engine_rpm", "speed_rpm", "Engine speed", "The engine speed that turns the pump at the row's speed."),
+        num("pump_rpm", "speed_rpm", "Pump speed"),
+        num("table_lpm", "flow_lpm", "Flow in the table", "The row's flow as the table gives it; the delivered "
+                                                          "flow is never more than the pump displaces."))),
+        "Empty when the pump has no flow table."),
 )
 
 _LINES_USED = lst("lines", "Used on lines", cnt("", "Line", "Position in the user's list of lines, from 0."))

@@ -57,7 +57,8 @@ class Field:
         Visible label on the page.
     kind : str
         ``"number"``, ``"integer"``, ``"text"``, ``"choice"``, ``"bool"``,
-        or ``"points"`` (list of ``[x, y, z]`` triples).
+        ``"points"`` (list of ``[x, y, z]`` triples), or ``"table"`` (rows of numbers, one per
+        column of ``columns``).
     unit : str or None
         Unit kind for display conversion at the edges (see ``calc.edges.units``).
     default : Any
@@ -75,6 +76,11 @@ class Field:
     choice_words : tuple of (str, str) pairs, optional
         Words for people for the choices of a ``"choice"`` field (the choice itself is the key kept in
         the job); the form and the build sheet show these.
+    columns : tuple of Field, optional
+        The columns of a ``"table"`` field: each a number field with its own label, unit and limits; a
+        row is a list with one value per column.
+    min_rows, max_rows : int
+        How many rows a ``"table"`` field may have.
     """
 
     key: str
@@ -92,6 +98,9 @@ class Field:
     help: str = ""
     max_length: int = 200
     choice_words: tuple = ()
+    columns: tuple = ()
+    min_rows: int = 1
+    max_rows: int = 50
 
     def describe(self) -> dict:
         d = {"key": self.key, "label": self.label, "kind": self.kind, "unit": self.unit,
@@ -106,6 +115,8 @@ class Field:
             d["choices"] = list(self.choices)
         if self.choice_words:
             d["choice_words"] = dict(self.choice_words)
+        if self.columns:
+            d.update(columns=[c.describe() for c in self.columns], min_rows=self.min_rows, max_rows=self.max_rows)
         return d
 
     # -- validation -------------------------------------------------------
@@ -162,7 +173,29 @@ class Field:
             return value
         if k == "points":
             return _points(value, path, problems)
+        if k == "table":
+            return self._table(value, path, problems, warnings)
         raise AssertionError(f"unknown field kind {k}")  # pragma: no cover
+
+    def _table(self, value, path: str, problems: list, warnings: list):
+        """Rows of numbers, each cell checked by its column's field at ``path[row][column]``."""
+        n = len(self.columns)
+        words = ", ".join(c.label.lower() for c in self.columns)
+        if not isinstance(value, list):
+            problems.append(Problem(path, f"must be a list of rows [{words}], got {_kind_of(value)}"))
+            return None
+        if not self.min_rows <= len(value) <= self.max_rows:
+            problems.append(Problem(path, f"needs {self.min_rows} to {self.max_rows} rows, got {len(value)}"))
+            return None
+        out, bad = [], len(problems)
+        for i, row in enumerate(value):
+            if not isinstance(row, list) or len(row) != n:
+                problems.append(Problem(f"{path}[{i}]", f"must be a row of {n} numbers [{words}], got "
+                                        + (f"a list of {len(row)}" if isinstance(row, list) else _kind_of(row))))
+                continue
+            out.append([c.check(v, f"{path}[{i}][{j}]", problems, warnings) for j, (c, v) in
+                        enumerate(zip(self.columns, row))])
+        return None if len(problems) > bad else out
 
 
 @dataclass(frozen=True)

@@ -112,9 +112,85 @@ def _gear_check(job, conditions) -> list[dict]:
                                       "second measured point")]
 
 
+#: A flow-control setting more than this share above the gear's need is flagged: more heat and a lighter feel
+#: than the gear was built for (common practice, no source).
+FLOW_OVER_NEED = 0.5
+#: What the advice proposes instead: the gear's need with this margin, rounded to half a litre (common practice,
+#: no source).
+FLOW_MARGIN = 0.2
+
+
+def _gear_rating_check(job) -> list[dict]:
+    rated, relief = job.gear["rated_bar"], job.pump["relief_bar"]
+    if rated is None:
+        return []
+    if relief > rated:
+        out = check("gear rating", "fail", f"lower the relief setting to at most the gear's {rated:g} bar: the pump's "
+                                           f"{relief:g} bar relief setting is above the gear's maximum working "
+                                           "pressure, so at full lock the gear is held above its rating")
+        out["fix"] = fix("pump.relief_bar", float(rated), field_label("pump", "relief_bar"))
+        return [out]
+    return [check("gear rating", "ok", f"the {relief:g} bar relief setting is within the gear's {rated:g} bar "
+                                       "maximum working pressure")]
+
+
+def _parking_fix(job, c, need: float) -> dict | None:
+    """The one edit that brings the pump's flow at the slowest point up to the gear's need, or None."""
+    pump, circuit_flow = job.pump, c["pump_flow_uncapped_lpm"]
+    if pump.get("flow_table_rpm_lpm"):
+        return None  # the table's own flow limits: another pump (or its maker's setting), not one field
+    if c["flow_control_limiting"] or circuit_flow >= need:
+        return fix("pump.flow_limit_lpm", float(math.ceil(need * 2.0 - 1e-9) / 2.0), field_label("pump", "flow_limit_lpm"))
+    ratio = pump["pulley_ratio"] * need / circuit_flow
+    if pump["pump_pulley_mm"] is not None:
+        return fix("pump.pump_pulley_mm", float(math.floor(pump["crank_pulley_mm"] / ratio + 1e-9)),
+                   field_label("pump", "pump_pulley_mm"))
+    return fix("pump.pulley_ratio", float(math.ceil(ratio * 100.0 - 1e-9) / 100.0), field_label("pump", "pulley_ratio"))
+
+
+def _gear_flow_checks(job, conditions) -> list[dict]:
+    need = job.gear["flow_needed_lpm"]
+    if need is None or not conditions:
+        return []
+    c = min(conditions, key=lambda x: x["engine_rpm"])
+    if c["pump_flow_lpm"] < need * (1.0 - 1e-9):  # a fix that gives the need exactly settles (rounding)
+        if job.pump.get("flow_table_rpm_lpm"):
+            why = ("the pump's flow table: a smaller pump pulley turns the pump faster at idle, where its table may give "
+                   "more, or use a pump with more flow at that speed")
+        elif c["flow_control_limiting"]:
+            why = "the flow-control setting: raise it"
+        else:
+            why = "the pump's displacement and pulley ratio: a smaller pump pulley or a larger pump"
+        out = check("gear flow", "caution", f"assist falls off when parking: at {said(c['name'])} ({c['engine_rpm']:g} "
+                                            f"rpm) the pump delivers {c['pump_flow_lpm']:.2f} L/min, less than the "
+                                            f"{need:g} L/min the gear needs for full assist (limited by {why})")
+        f = _parking_fix(job, c, need)
+        if f:
+            out["fix"] = f
+        out = [out]
+    else:
+        out = [check("gear flow", "ok", f"the pump delivers {c['pump_flow_lpm']:.2f} L/min at the slowest operating "
+                                        f"point, {said(c['name'])}, at least the {need:g} L/min the gear needs")]
+    table = job.pump.get("flow_table_rpm_lpm")
+    setting = max(r[1] for r in table) if table else job.pump["flow_limit_lpm"]
+    if setting > need * (1.0 + FLOW_OVER_NEED):
+        what = "the flow table's highest flow" if table else "the flow-control setting"
+        msg = (f"{what}, {setting:g} L/min, is more than {FLOW_OVER_NEED:.0%} above the {need:g} L/min the gear needs: "
+               "more heat in the fluid and a lighter feel than the gear was built for (common practice, no source)")
+        flagged = check("flow-control setting", "caution", ("use a pump set nearer the gear's need: " if table else
+                                                             "lower the setting: ") + msg)
+        if not table:
+            flagged["fix"] = fix("pump.flow_limit_lpm", float(math.ceil(need * (1 + FLOW_MARGIN) * 2.0 - 1e-9) / 2.0),
+                                 field_label("pump", "flow_limit_lpm"))
+        out.append(flagged)
+    return out
+
+
 def circuit_checks(job, conditions) -> list[dict]:
-    """The pump's and the gear's checks: the relief setting against the circuit's need, the valve estimate."""
-    return [_relief_check(job, conditions)] + _gear_check(job, conditions)
+    """The pump's and the gear's checks: the relief setting against the circuit's need and the gear's rating, the
+    pump's flow against the gear's need, the valve estimate."""
+    return ([_relief_check(job, conditions)] + _gear_rating_check(job) + _gear_flow_checks(job, conditions)
+            + _gear_check(job, conditions))
 
 
 def largest_drops(circuit: Circuit, conditions) -> list[dict]:
@@ -127,13 +203,18 @@ def largest_drops(circuit: Circuit, conditions) -> list[dict]:
 
 
 def pump_curve(circuit: Circuit, conditions) -> dict:
-    """Delivered flow from 0 to 1.1 x the fastest operating point (at least 3000 rpm), for the plot."""
-    rpm_max = math.floor(max([3000.0] + [c["engine_rpm"] for c in conditions]) * 1.1 + 0.5)
+    """Delivered flow from 0 to 1.1 x the fastest operating point (at least 3000 rpm, and the flow table's last
+    row), for the plot; the flow table's rows at the engine speeds that turn the pump at their speeds."""
+    pump = circuit.pump
+    ratio, table = pump["pulley_ratio"], pump.get("flow_table_rpm_lpm") or ()
+    fastest = max([3000.0] + [c["engine_rpm"] for c in conditions] + [r[0] / ratio for r in table])
+    rpm_max = math.floor(fastest * 1.1 + 0.5)
     points = []
     for i in range(PUMP_CURVE_POINTS + 1):
         rpm = rpm_max * i / PUMP_CURVE_POINTS
         points.append({"engine_rpm": rpm, "delivered_lpm": circuit.pump_flow(rpm)[0] / LPM})
-    return {"flow_limit_lpm": circuit.pump["flow_limit_lpm"], "points": points}
+    rows = [{"engine_rpm": r[0] / ratio, "pump_rpm": r[0], "table_lpm": r[1]} for r in table]
+    return {"flow_limit_lpm": None if table else pump["flow_limit_lpm"], "points": points, "table": rows}
 
 
 def circuit_stage(job, assembly) -> CircuitSection:

@@ -17,8 +17,11 @@ The circuit model (stated assumptions):
   (``calc.data.practice.INLET_MIN_BAR``) starves the pump: the circuit then gets only the
   flow the feed line passes at the limit; no pressure is reported below a vacuum
   (``INLET_FLOOR_BAR``);
+* the pump delivers its displacement x pump speed x volumetric efficiency, capped by the
+  flow control: the flat setting, or the pump's flow table read at the pump's speed;
 * the pump works against its outlet pressure plus the flow-control valve's metering
-  drop, which scales as flow squared below the flow-control setting.
+  drop, which scales as flow squared below the flow-control setting (the table's flow at
+  that speed, with a table).
 * the gear valve at neutral is an orifice whose loss rises when the fluid is
   cold (``calc.physics.valve``), fitted to its measured point (or two points).
 """
@@ -34,7 +37,7 @@ from fluids.numerics import brenth
 from ..data.practice import INLET_FLOOR_BAR, INLET_MIN_BAR
 from ..model.fluid import state_of
 from ..model.job_rules import gear_constants
-from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa
+from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa, table_flow
 from ..physics.valve import valve_drop_pa
 from .line import compile_line, line_flow
 
@@ -132,11 +135,20 @@ class Circuit:
             st = self._memo[key] = state_of(self.fluid, t_c)
         return st
 
+    def flow_limit_m3_s(self, engine_rpm: float) -> float:
+        """The most the flow control lets out at ``engine_rpm``: the pump's flow table read at its speed
+        (``calc.physics.pump.table_flow``), else the flat flow-control setting, [m^3/s]."""
+        p = self.pump
+        table = p.get("flow_table_rpm_lpm")
+        if table:
+            return table_flow(table, engine_rpm * p["pulley_ratio"]) * LPM
+        return p["flow_limit_lpm"] * LPM
+
     def pump_flow(self, engine_rpm: float) -> tuple[float, float, bool]:
         """Delivered flow, flow before the flow control [m^3/s], and whether the flow control limits."""
         p = self.pump
         return delivered_flow_m3_s(p["displacement_cc_rev"], engine_rpm, p["pulley_ratio"],
-                                   p["volumetric_efficiency"], p["flow_limit_lpm"] * LPM)
+                                   p["volumetric_efficiency"], self.flow_limit_m3_s(engine_rpm))
 
     def gear_drop_pa(self, q_m3_s: float, st) -> float:
         """The gear valve's drop at neutral (``calc.physics.valve``: laminar and inertial parts), [Pa]."""
@@ -222,7 +234,7 @@ class Circuit:
         dps: dict = {}
         self.circuit_drop_pa(q_lines, st, dps)
         p = self.pump
-        metering = metering_drop_pa(p["metering_drop_bar"] * BAR, q_lines, p["flow_limit_lpm"] * LPM)
+        metering = metering_drop_pa(p["metering_drop_bar"] * BAR, q_lines, self.flow_limit_m3_s(cond["engine_rpm"]))
         res = {"name": cond["name"], "engine_rpm": cond["engine_rpm"], "fluid_temp_c": t,
                "full_lock": cond["full_lock"], "viscosity_cst": st.nu_m2_s * 1e6,
                "density_kg_m3": st.rho_kg_m3,
