@@ -143,6 +143,9 @@ def model_markdown(model: dict) -> str:
                                                            f"`{json.dumps(node['default'])}`")
             rows.append(f"| `{path}` | {node['label']} | {label(node['unit']) if node['unit'] else ''} | "
                         f"{default} | {limits(node)} | {node['help']} |")
+            for j, c in enumerate(node.get("columns", ())):  # a table's columns: one row each, as [row][column]
+                rows.append(f"| `{path}[][{j}]` | {c['label']} | {label(c['unit']) if c['unit'] else ''} | | "
+                            f"{limits(c)} | Column {j + 1} of each row. |")
     walk(model["job"], "")
     return "\n".join(rows)
 

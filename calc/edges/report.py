@@ -42,6 +42,20 @@ class _Show:
         return f"{self.num(v, path, fmt)} {self.unit(path)}"
 
 
+def _pump_lines(curve: dict, s: _Show) -> list[str]:
+    """The pump's drive and flow control: the pulley ratio used, and the flow-control setting or the flow table."""
+    if not curve:
+        return []
+    out = [f"    drive: pulley ratio {curve['pulley_ratio']:.3f} (pump : crank speed)"]
+    if curve.get("table"):
+        rows = ", ".join(f"{s.num(r['pump_rpm'], 'pump_curve.table[].pump_rpm', '{:.0f}')} rpm "
+                         f"{s.fig(r['table_lpm'], 'pump_curve.table[].table_lpm')}" for r in curve["table"])
+        out.append(f"    flow control: the pump's flow table (pump speed, flow): {rows}")
+    elif curve.get("flow_limit_lpm") is not None:
+        out.append(f"    flow control: setting {s.fig(curve['flow_limit_lpm'], 'pump_curve.flow_limit_lpm')}")
+    return out
+
+
 def _rating_lines(ln: dict, s: _Show) -> list[str]:
     """The rating of one line: assembly working and burst, proof test, margin, weakest part, drop budgets."""
     r = ln["rating"]
@@ -210,6 +224,7 @@ def text_report(res: dict, units: str = "metric") -> str:
     circuit = res.get("circuit")
     if circuit:
         out.append(f"Pump, relief and gear: [{circuit['verdict']}]")
+        out.extend(_pump_lines(res.get("pump_curve") or {}, s))
         for ch in circuit["checks"]:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
             if ch.get("fix"):

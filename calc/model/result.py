@@ -445,6 +445,8 @@ FLUID = (
 PUMP_CURVE = (
     num("flow_limit_lpm", "flow_lpm", "Flow-control setting", nullable=True, help="None when the pump's flow table "
                                                                                   "takes its place."),
+    num("pulley_ratio", "ratio", "Pulley ratio used", "Pump speed over crank speed: as given, else from the two "
+                                                       "pulley diameters, else 1."),
     lst("points", "Delivered flow against engine speed", rec("", "Point", (
         num("engine_rpm", "speed_rpm", "Engine speed"),
         num("delivered_lpm", "flow_lpm", "Delivered flow")))),

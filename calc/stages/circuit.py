@@ -214,7 +214,8 @@ def pump_curve(circuit: Circuit, conditions) -> dict:
         rpm = rpm_max * i / PUMP_CURVE_POINTS
         points.append({"engine_rpm": rpm, "delivered_lpm": circuit.pump_flow(rpm)[0] / LPM})
     rows = [{"engine_rpm": r[0] / ratio, "pump_rpm": r[0], "table_lpm": r[1]} for r in table]
-    return {"flow_limit_lpm": None if table else pump["flow_limit_lpm"], "points": points, "table": rows}
+    return {"flow_limit_lpm": None if table else pump["flow_limit_lpm"], "pulley_ratio": ratio, "points": points,
+            "table": rows}
 
 
 def circuit_stage(job, assembly) -> CircuitSection:

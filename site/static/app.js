@@ -295,7 +295,7 @@ function openAsNew(job, words) {
 
 function newJob() {
   openAsNew(clone(readJSON("linesmith-new-job")),
-    "A new job from the three-line template. Fill in the pump (displacement, flow-control setting, relief setting) and the steering gear; results come when they are given.");
+    "A new job from the three-line template. Fill in the pump (displacement, flow-control setting or flow table, relief setting) and the steering gear; results come when they are given.");
 }
 
 function onOtherTab(theirs) {

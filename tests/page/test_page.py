@@ -164,9 +164,15 @@ def test_form_is_generated_from_the_job_model(page):
         assert fld.count() == 1, f["key"]
         assert f["label"] in fld.locator(".fld-label").text_content()
         assert f["help"] in fld.locator("details.hint").text_content()
-    # every input of the form has a visible label of its own
-    unlabelled = page.evaluate("""() => [...document.querySelectorAll('#job-form [data-key]')]
-        .filter((i) => !i.closest('label') || !i.closest('label').textContent.trim()).length""")
+    # every input of the form has a visible label of its own (a table field: its group is named by its visible
+    # label, and each cell by its column and row)
+    unlabelled = page.evaluate("""() => [...document.querySelectorAll('#job-form [data-key], #job-form [data-cell]')]
+        .filter((i) => {
+          const own = i.closest('label') && i.closest('label').textContent.trim();
+          const by = i.getAttribute('aria-labelledby') && document.getElementById(i.getAttribute('aria-labelledby'));
+          const named = i.dataset.cell !== undefined && (i.getAttribute('aria-label') || '').trim();
+          return !own && !(by && by.textContent.trim()) && !named;
+        }).length""")
     assert unlabelled == 0
     # the job lists no operating points: the engine's defaults are shown
     names = page.locator('[data-items-of="conditions"] > li input[data-key="name"]')

@@ -14,6 +14,7 @@ import re
 import time
 
 import pytest
+from playwright.sync_api import TimeoutError as PlaywrightTimeout
 
 import calc
 from calc.edges.report import CAUTIONS
@@ -238,7 +239,9 @@ def test_print_flows_lines_together_with_one_disclaimer_and_shop_precision(page,
         pdf = page.pdf(path=str(SHOTS / "sheet-print.pdf"), format="A4")
         pages = len(re.findall(rb"/Type\s*/Page[^s]", pdf))
         print(f"\nbuild sheet of {len(want['lines'])} lines: {pages} A4 pages")
-        assert 1 <= pages <= len(want["lines"]) + 1
+        # lines flow together: at most a page per line, and two for the job's own sections (header, pump and
+        # gear, order list, cautions) - a stated layout budget
+        assert 1 <= pages <= len(want["lines"]) + 2
     finally:
         page.emulate_media(media="screen")
 
@@ -263,6 +266,23 @@ def test_us_sheet_rounds_cut_lengths_to_sixteenths_and_ratings_to_5_psi(page, si
 
 def _readout(pg, chart):
     return pg.locator(f'[data-readout="{chart}"]').text_content()
+
+
+def _tap_left_end(pg, chart):
+    """Tap near the left end of a plot and return its readout. The results may be drawn again just after the
+    tap (a result arriving for the unit switch), which puts a fresh readout in its place: then tap again."""
+    for _ in range(3):
+        svg = pg.locator(f'svg[data-chart="{chart}"]')
+        svg.scroll_into_view_if_needed()
+        box = svg.bounding_box()
+        pg.touchscreen.tap(box["x"] + 60, box["y"] + box["height"] * 0.3)
+        try:
+            pg.wait_for_function("(c) => !document.querySelector(`[data-readout=\"${c}\"]`).textContent.startsWith('Point at')",
+                                 arg=chart, timeout=5_000)
+        except PlaywrightTimeout:  # the readout was drawn again: tap the new plot
+            continue
+        break
+    return _readout(pg, chart)
 
 
 def test_plot_readout_follows_the_pointer_and_the_keys(page, site):
@@ -296,11 +316,7 @@ def test_plot_readout_works_with_a_finger_on_a_phone_in_us_units(browser, site):
         _units(pg, "us")
         pg.click('#view-switch button[data-view="results"]')  # a phone shows one pane at a time
         pg.wait_for_selector('svg[data-chart="flow-vs-speed"]', timeout=30_000)
-        svg = pg.locator('svg[data-chart="flow-vs-speed"]')
-        svg.scroll_into_view_if_needed()
-        box = svg.bounding_box()
-        pg.touchscreen.tap(box["x"] + 60, box["y"] + box["height"] * 0.3)  # the left end of the plot
-        text = _readout(pg, "flow-vs-speed")
+        text = _tap_left_end(pg, "flow-vs-speed")
         points = calc.evaluate(copy.deepcopy(job))["pump_curve"]["points"]
         m = re.fullmatch(r"engine speed (\d+) rpm: delivered flow (\d+\.\d{3}) gpm", text)
         assert m, text

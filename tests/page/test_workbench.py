@@ -85,7 +85,12 @@ def test_new_job_starts_from_the_template_and_says_what_to_fill_in(context, site
     problems = pg.text_content("#problems")
     # the engine names every required pump and gear field as missing, by its label (calc.model.job)
     want = {e["label"] for e in calc.evaluate(starting_job())["errors"]}
-    assert {"Displacement", "Flow-control setting", "Relief setting"} <= want
+    assert {"Displacement", "Relief setting"} <= want
+    # the flow control is a setting or a flow table: the engine asks for it once the required fields are there
+    filled = starting_job()
+    filled["pump"].update(displacement_cc_rev=10.0, relief_bar=90.0)
+    filled["gear"].update(neutral_drop_bar=2.0, at_flow_lpm=8.0)
+    assert "Flow-control setting" in {e["label"] for e in calc.evaluate(filled)["errors"]}
     assert all(label in problems for label in want)
     assert "fill in the pump" in pg.text_content("#file-message").lower()
     SHOTS.mkdir(parents=True, exist_ok=True)
@@ -227,11 +232,11 @@ def test_a_decimal_comma_that_cannot_be_thousands_is_read(context, site):
 
 def test_defaults_are_marked_as_defaults(context, site):
     pg = _open(context, site)
-    pg.click("#job-new")  # the template gives no pulley ratio
-    # Source: calc.model.job declares the pulley ratio's default 1.0; the empty field shows it marked as the
-    # default (a placeholder in words), not as a value
-    field = '[data-path="pump.pulley_ratio"]'
-    assert pg.input_value(field) == "" and pg.get_attribute(field, "placeholder") == "default: 1"
+    pg.click("#job-new")  # the template gives no volumetric efficiency
+    # Source: calc.model.job declares the volumetric efficiency's default 0.9; the empty field shows it marked as
+    # the default (a placeholder in words), not as a value
+    field = '[data-path="pump.volumetric_efficiency"]'
+    assert pg.input_value(field) == "" and pg.get_attribute(field, "placeholder") == "default: 0.9"
 
 
 def test_section_list_folds_and_line_summaries(context, site):

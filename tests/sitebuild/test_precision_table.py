@@ -6,7 +6,8 @@ import re
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[2]
-UNIT = {"length_mm": ("mm", "in"), "length_m": ("m", "ft"), "pressure_bar": ("bar", "psi"), "angle_deg": ("°", "°")}
+UNIT = {"length_mm": ("mm", "in"), "length_m": ("m", "ft"), "pressure_bar": ("bar", "psi"), "angle_deg": ("°", "°"),
+        "flow_lpm": ("L/min", "gpm"), "speed_rpm": ("rpm", "rpm")}
 MODE = {"up": "up", "nearest": "nearest", "down": "down"}
 
 
@@ -35,5 +36,5 @@ def _readme():
 
 def test_readme_table_is_the_declared_table():
     declared = _declared()
-    assert len(declared) == 8
+    assert len(declared) == 11
     assert _readme() == declared

@@ -254,3 +254,12 @@ def test_pulley_diameters_must_give_a_ratio_within_its_limits():
     job["pump"].pop("pulley_ratio")
     job["pump"].update(crank_pulley_mm=600.0, pump_pulley_mm=100.0)
     assert "pulley ratio of 6, outside 0.05 to 5" in errors_of(evaluate(job))["pump.pump_pulley_mm"]
+
+
+def test_the_text_report_shows_the_drive_and_the_flow_table():
+    # Source: the job's own rows (600 rpm 8 L/min ...) and 168 / 140 = 1.2 (exact), in the report's words.
+    from calc.edges.report import text_report
+    text = text_report(evaluate(demo_job("light-truck-high-flow")), "metric")
+    assert "drive: pulley ratio 1.200 (pump : crank speed)" in text
+    assert "flow control: the pump's flow table (pump speed, flow): 600 rpm 8.00 L/min, 1000 rpm 13.00 L/min" in text
+    assert "gear rating: the 110 bar relief setting is within the gear's 120 bar maximum working pressure" in text

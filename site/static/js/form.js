@@ -5,6 +5,7 @@ import { clone, deletePath, el, getPath, parsePath, setPath } from "./util.js";
 import { fmt, fromShow, getSystem, inputText, unitLabel, UNITS } from "./units.js";
 import { resultPart } from "./declared.js";
 import { outOfRange, readNumber } from "./numbers.js";
+import { clearDrafts, fillTable, markCell, rowsAfterClick, tableEdit } from "./tablefield.js";
 
 let model = null;       // describe_job()
 let state = null;       // { job } owned by app.js
@@ -94,6 +95,10 @@ function fillInput(input) {
   const unit = input.dataset.unit;
   const value = shownValue(path);
   const def = input.dataset.default;
+  if (kind === "table") {
+    fillTable(input, path, value);
+    return;
+  }
   if (kind === "bool") {
     input.checked = value === undefined ? def === "true" : Boolean(value);
     return;
@@ -110,13 +115,24 @@ function fillInput(input) {
   } else if (kind === "number" || kind === "integer") {
     input.value = typeof value === "number" ? inputText(value, unit) : "";
     const preset = presetValue(path);
+    const used = usedValue(path);
     input.placeholder = preset !== undefined ? `preset: ${inputText(preset, unit)}`
+      : used !== undefined ? `used: ${inputText(used, unit)}`
+      : path === "pump.flow_limit_lpm" && Array.isArray(getPath(state.job, "pump.flow_table_rpm_lpm")) ? "not used: the flow table below"
       : def !== undefined && def !== "" ? `default: ${inputText(Number(def), unit)}` : "";
   } else {
     input.value = typeof value === "string" ? value : "";
     input.placeholder = def ? `default: ${def}` : "";
   }
   updateDash(input);
+}
+
+// A field left empty whose value the engine works out (the pulley ratio from the two pulleys, or 1): the
+// engine's figure from the last result, shown as the placeholder.
+function usedValue(path) {
+  if (path !== "pump.pulley_ratio") return undefined;
+  const v = state.result && state.result.pump_curve && state.result.pump_curve.pulley_ratio;
+  return typeof v === "number" ? v : undefined;
 }
 
 function presetValue(path) {
@@ -145,8 +161,13 @@ function sizeOf(part) {
   return part.kind === "tube" ? part.od_mm : part.bore_mm;
 }
 
-// After a new result: every dash size beside the form's diameters.
+// After a new result: every dash size beside the form's diameters, and the placeholders that show the
+// engine's figure for a field left empty (and the flow-control setting's, which follows the flow table).
 export function refreshDashes() {
+  for (const path of ["pump.pulley_ratio", "pump.flow_limit_lpm"]) {
+    const input = formEl().querySelector(`[data-path="${path}"]`);
+    if (input) fillInput(input);
+  }
   for (const out of formEl().querySelectorAll("output.dash")) {
     const input = out.closest(".fld")?.querySelector("[data-key]");
     if (input) updateDash(input);
@@ -269,8 +290,37 @@ function parseInput(input) {
   return { value };
 }
 
+// A table field's cells were edited, or rows added or removed (``rows``, as typed): the job takes the table
+// when every cell is a good number; else the draft stays in the form with its reason, as a typed field's does.
+function onTableEdit(holder, rows) {
+  const path = holder.dataset.path;
+  const parsed = tableEdit(holder, rows);
+  const errorP = holder.closest(".fld").querySelector(".fld-error");
+  if (parsed.error) {
+    if (rows) fillTable(holder, path, getPath(state.job, path));
+    markCell(holder, parsed.cell);
+    pendingText.set(path, "");
+    pendingWhy.set(path, parsed.error);
+    errorP.textContent = parsed.error; errorP.hidden = false; errorP.dataset.local = "1";
+    onChange({ localErrors: localErrors(), structural: false, recalc: false });
+    return;
+  }
+  pendingText.delete(path);
+  pendingWhy.delete(path);
+  if (errorP.dataset.local) { errorP.hidden = true; errorP.textContent = ""; delete errorP.dataset.local; }
+  markCell(holder, null);
+  if (parsed.empty) deletePath(state.job, path); else setPath(state.job, path, parsed.value);
+  if (rows) fillTable(holder, path, getPath(state.job, path));
+  onChange({ localErrors: localErrors(), structural: Boolean(rows), recalc: true });
+}
+
 function onInput(event) {
   const input = event.target;
+  const table = input.dataset && input.dataset.cell !== undefined ? input.closest('[data-kind="table"]') : null;
+  if (table) {
+    if (event.type === "change" && !table.dataset.filling && table.contains(input)) onTableEdit(table);
+    return;
+  }
   if (!input.dataset || !input.dataset.key) return;
   const typed = ["text", "number", "integer", "points"].includes(input.dataset.kind);
   if (typed ? event.type === "change" : event.type === "input") return; // one event per edit
@@ -328,10 +378,12 @@ export function localErrors() {
 export function resetPending() {
   pendingText.clear();
   pendingWhy.clear();
+  clearDrafts();
   for (const p of formEl().querySelectorAll(".fld-error[data-local]")) { p.hidden = true; p.textContent = ""; delete p.dataset.local; }
 }
 
 function clearPending(prefix) {
+  clearDrafts(prefix);
   for (const key of [...pendingText.keys()]) if (key.startsWith(prefix)) { pendingText.delete(key); pendingWhy.delete(key); }
 }
 
@@ -356,6 +408,15 @@ function newItem(itemKey, list, kind) {
 function onClick(event) {
   const button = event.target.closest("button");
   if (!button || !formEl().contains(button)) return;
+  const table = button.closest('[data-kind="table"]');
+  if (table) {
+    const rows = rowsAfterClick(table, button);
+    if (!rows) return;
+    onTableEdit(table, rows);
+    if (button.classList.contains("add-row")) table.querySelector("tbody tr:last-child input")?.focus();
+    else table.querySelector(".add-row").focus();
+    return;
+  }
   const holder = button.closest(".list");
   if (!holder) return;
   const listPath = holder.dataset.path;
@@ -425,12 +486,13 @@ export function showErrors(errors) {
   for (const input of form.querySelectorAll("[aria-invalid]")) {
     if (!pendingText.has(input.dataset.path)) input.removeAttribute("aria-invalid");
   }
-  for (const e of errors || []) {
+  for (let e of errors || []) {
     const target = findByPath(e.path);
     if (!target) continue;
-    if (target.matches("[data-key]")) {
+    if (target.matches("[data-key], [data-cell]")) {
       const p = target.closest(".fld").querySelector(".fld-error");
       if (p.dataset.local) continue;
+      if (target.matches("[data-cell]")) e = { ...e, message: `${e.label}: ${e.message}` };
       // the engine words its limits in engine units; say so when another unit is shown
       const unit = target.dataset.unit;
       const note = unit && getSystem() !== "metric" && unitLabel(unit, "metric") !== unitLabel(unit)

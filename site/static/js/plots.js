@@ -33,8 +33,10 @@ function marker(shape, x, y) {
 }
 
 /**
- * opts: {id, title, xLabel, yLabel, series: [{name, points: [[x, y], ...], markers}],
+ * opts: {id, title, xLabel, yLabel, series: [{name, points: [[x, y], ...], markers, line, readout}],
  *        hlines: [{y, label}], width, height}
+ * A series with line: false is drawn as marks only; one with readout: false is left out of plotFigure's
+ * cursor and readout (marks at their own x, such as a table's rows, would be read at another x).
  */
 export function lineChart(opts) {
   const W = opts.width || 460, H = opts.height || 260;
@@ -81,16 +83,16 @@ export function lineChart(opts) {
   opts.series.forEach((se, i) => {
     const g = s("g", { class: "series", "data-series": se.name });
     const d = se.points.map((p, k) => `${k ? "L" : "M"}${X(p[0]).toFixed(1)},${Y(p[1]).toFixed(1)}`).join("");
-    g.append(s("path", { d, class: "line", "stroke-dasharray": DASHES[i % DASHES.length] }));
+    if (se.line !== false) g.append(s("path", { d, class: "line", "stroke-dasharray": DASHES[i % DASHES.length] }));
     if (se.markers !== false) for (const p of se.points) g.append(marker(MARKS[i % MARKS.length], X(p[0]), Y(p[1])));
     svg.append(g);
-    legend.push([se.name, i]);
+    legend.push([se.name, i, se.line !== false]);
   });
   // legend under the plot
   const lg = s("g", { class: "legend" });
-  legend.forEach(([name, i], k) => {
+  legend.forEach(([name, i, line], k) => {
     const lx = m.l + (k % 2) * (pw / 2), ly = m.t + ph + 48 + 16 * Math.floor(k / 2);
-    lg.append(s("line", { x1: lx, x2: lx + 26, y1: ly - 4, y2: ly - 4, class: "line", "stroke-dasharray": DASHES[i % DASHES.length] }));
+    if (line) lg.append(s("line", { x1: lx, x2: lx + 26, y1: ly - 4, y2: ly - 4, class: "line", "stroke-dasharray": DASHES[i % DASHES.length] }));
     lg.append(marker(MARKS[i % MARKS.length], lx + 13, ly - 4));
     lg.append(s("text", { x: lx + 32, y: ly, class: "legend-text" }, name));
   });
@@ -120,19 +122,21 @@ export function plotFigure(opts) {
   readout.dataset.readout = opts.id || "";
   readout.textContent = "Point at the plot, or touch it, to read its values.";
   fig.append(readout);
+  if (opts.note) fig.append(Object.assign(document.createElement("p"), { className: "plot-note", textContent: opts.note }));
   const c = svg.__chart;
   if (!c) return fig;
-  const xs = [...new Set(opts.series.flatMap((se) => se.points.map((p) => p[0])))].sort((a, b) => a - b);
+  const read = opts.series.filter((se) => se.readout !== false);
+  const xs = [...new Set(read.flatMap((se) => se.points.map((p) => p[0])))].sort((a, b) => a - b);
   const cursor = s("line", { y1: c.m.t, y2: c.m.t + c.ph, class: "cursor", visibility: "hidden" });
   svg.append(cursor);
-  const dots = opts.series.map(() => { const d = s("circle", { r: 4.5, class: "cursor-dot", visibility: "hidden" }); svg.append(d); return d; });
+  const dots = read.map(() => { const d = s("circle", { r: 4.5, class: "cursor-dot", visibility: "hidden" }); svg.append(d); return d; });
   const num = (v, dec) => (typeof v === "number" && Number.isFinite(v) ? v.toFixed(dec) : "–");
   let at = -1;
   const show = (i) => {
     at = Math.max(0, Math.min(xs.length - 1, i));
     const x = xs[at];
     cursor.setAttribute("x1", c.X(x)); cursor.setAttribute("x2", c.X(x)); cursor.setAttribute("visibility", "visible");
-    const parts = opts.series.map((se, k) => {
+    const parts = read.map((se, k) => {
       const p = se.points.reduce((best, q) => (Math.abs(q[0] - x) < Math.abs(best[0] - x) ? q : best), se.points[0]);
       dots[k].setAttribute("cx", c.X(p[0])); dots[k].setAttribute("cy", c.Y(p[1])); dots[k].setAttribute("visibility", "visible");
       return `${se.name} ${num(p[1], opts.yDec ?? 2)} ${opts.yUnit || ""}`.trim();

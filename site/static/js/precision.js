@@ -13,6 +13,9 @@ export const SHOP_PRECISION = {
   pressure: { label: "Pressures (must hold, drops)", kind: "pressure_bar", metric: { step: 0.1 }, us: { step: 1 }, mode: "nearest" },
   rating: { label: "Ratings (working, burst, proof test)", kind: "pressure_bar", metric: { step: 1 }, us: { step: 5 }, mode: "nearest" },
   angle: { label: "Angles and clocking", kind: "angle_deg", metric: { step: 1 }, us: { step: 1 }, mode: "nearest" },
+  flow: { label: "Flows (pump, flow table, gear's need)", kind: "flow_lpm", metric: { step: 0.1 }, us: { step: 0.01 }, mode: "nearest" },
+  speed: { label: "Pump and engine speeds", kind: "speed_rpm", metric: { step: 10 }, us: { step: 10 }, mode: "nearest" },
+  pulley: { label: "Pulley diameters", kind: "length_mm", metric: { step: 1 }, us: { fraction: 16 }, mode: "nearest" },
 };
 
 const ROUND = { nearest: Math.round, up: Math.ceil, down: Math.floor };

@@ -376,12 +376,19 @@ export function renderPlots(result, sweep) {
   }
   const curve = result.pump_curve;
   if (curve && Array.isArray(curve.points)) {
+    const table = Array.isArray(curve.table) ? curve.table : [];
+    const series = [{ name: "delivered flow", points: curve.points.map((p) => [p.engine_rpm, toShow(p.delivered_lpm, "flow_lpm")]), markers: false }];
+    if (table.length) {
+      series.push({ name: "pump's flow table", points: table.map((r) => [r.engine_rpm, toShow(r.table_lpm, "flow_lpm")]), line: false, readout: false });
+    }
     grid.append(plotFigure({
       id: "flow-vs-speed", title: "Delivered flow against engine speed",
-      xLabel: "engine speed (rpm)", yLabel: `delivered flow (${Q})`, markers: false,
-      series: [{ name: "delivered flow", points: curve.points.map((p) => [p.engine_rpm, toShow(p.delivered_lpm, "flow_lpm")]), markers: false }],
-      hlines: [{ y: toShow(curve.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(curve.flow_limit_lpm, "flow_lpm")} ${Q}` }],
+      xLabel: "engine speed (rpm)", yLabel: `delivered flow (${Q})`, markers: false, series,
+      hlines: curve.flow_limit_lpm == null ? [] : [{ y: toShow(curve.flow_limit_lpm, "flow_lpm"), label: `flow-control cap ${fmt(curve.flow_limit_lpm, "flow_lpm")} ${Q}` }],
       yZero: true, xName: "engine speed", xUnit: "rpm", xDec: 0, yUnit: Q, yDec: decimalsFor("flow_lpm"),
+      note: table.length ? "Marks: the pump's flow table, each row at the engine speed that turns the pump at its speed: "
+        + table.map((r) => `${fmt(r.pump_rpm, "speed_rpm")} rpm pump (${fmt(r.engine_rpm, "speed_rpm")} rpm engine) ${fmt(r.table_lpm, "flow_lpm")} ${Q}`).join("; ")
+        + ". The line never rises above what the pump displaces." : "",
     }));
   }
   const th = result.thermal;

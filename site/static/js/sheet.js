@@ -12,6 +12,7 @@ import { routeSketch } from "./sketch.js";
 
 const JOB_FIELDS = new Map(readJSON("linesmith-model").job.fields.map((f) => [f.key, f]));
 const jobLabel = (key) => JOB_FIELDS.get(key).label;
+const fieldLabel = (record, key) => JOB_FIELDS.get(record).fields.find((f) => f.key === key).label;
 const HEADER = ["name", "customer", "vehicle", "job_number", "date"];
 
 function hoseName(p) {
@@ -73,6 +74,37 @@ function sheetHeader(job) {
   head.append(dl);
   if (job.notes_on_sheet && job.notes) head.append(el("p", { class: "sheet-notes" }, el("strong", {}, `${jobLabel("notes")}: `), job.notes));
   return head;
+}
+
+// The pump and the gear as the lines were sized for them: drive, flow control (the setting or the pump's flow
+// table), relief, and the gear's rating and need with the engine's verdicts on them.
+function pumpGearSection(job, result) {
+  const pump = job.pump || {}, gear = job.gear || {};
+  const P = (key) => fieldLabel("pump", key), G = (key) => fieldLabel("gear", key);
+  const given = (v, text) => (typeof v === "number" ? text : el("span", { class: "fill-in" }, "not given"));
+  const curve = result.pump_curve || {};
+  const drive = typeof pump.crank_pulley_mm === "number" && typeof pump.pump_pulley_mm === "number"
+    ? `${shop(pump.crank_pulley_mm, "pulley")} crank, ${shop(pump.pump_pulley_mm, "pulley")} pump: ratio ${fmt(curve.pulley_ratio, "ratio")}`
+    : `ratio ${fmt(curve.pulley_ratio, "ratio")}`;
+  const table = curve.table || [];
+  const flow = table.length
+    ? `${P("flow_table_rpm_lpm")}: ` + table.map((r) => `${shop(r.pump_rpm, "speed", false)} rpm ${shop(r.table_lpm, "flow")}`).join("; ")
+    : `${P("flow_limit_lpm")}: ${shop(pump.flow_limit_lpm, "flow")}`;
+  const rows = [
+    [P("displacement_cc_rev"), `${fmt(pump.displacement_cc_rev, "displacement_cc")} ${unitLabel("displacement_cc")}`],
+    ["Drive", drive], ["Flow control", flow],
+    [P("relief_bar"), shop(pump.relief_bar, "rating")],
+    [G("rated_bar"), given(gear.rated_bar, shop(gear.rated_bar, "rating"))],
+    [G("flow_needed_lpm"), given(gear.flow_needed_lpm, shop(gear.flow_needed_lpm, "flow"))],
+  ];
+  const box = el("section", { class: "sheet-pump" }, el("h3", {}, "Pump and steering gear"), kv(rows));
+  const checks = ((result.circuit || {}).checks || []).filter((c) => ["relief setting", "gear rating", "gear flow", "flow-control setting"].includes(c.check));
+  if (checks.length) {
+    const ul = el("ul", { class: "sheet-checks" });
+    for (const c of checks) ul.append(el("li", {}, badge(c.verdict), ` ${c.check}: ${c.message}`));
+    box.append(ul);
+  }
+  return box;
 }
 
 function endsOf(line, r) {
@@ -213,6 +245,7 @@ export function renderSheet(job, result) {
     sheet.append(el("p", {}, "No result yet: the build sheet needs a job that computes."));
     return;
   }
+  sheet.append(pumpGearSection(job, result));
   (job.lines || []).forEach((line, li) => sheet.append(lineSection(job, result, line, li)));
   if (result.order) sheet.append(orderList(result.order));
   const foot = el("footer", { class: "sheet-foot" });
