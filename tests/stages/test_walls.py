@@ -87,7 +87,10 @@ def test_outer_wall_is_the_surface_the_heat_balance_uses():
 
 def test_demos_without_a_local_air_judge_no_wall():
     # Source: the check's rule (no own air, wall no hotter than the fluid: the fluid check judges the part).
-    for name in ("compact-hatch", "light-truck-high-flow", "swap-remote-reservoir"):
+    for name in ("compact-hatch", "light-truck-high-flow"):
         r = evaluate(demo_job(name))
         assert all(w["verdict"] is None and w["local_air_temp_c"] is None for ln in r["lines"] for w in ln["walls"])
         assert not any(c["check"] == "wall temperature" for ln in r["lines"] for c in ln["checks"])
+    swap = evaluate(demo_job("swap-remote-reservoir"))
+    judged = [(ln["index"], w["job_part"]) for ln in swap["lines"] for w in ln["walls"] if w["verdict"]]
+    assert judged == [(0, 1)]  # the pressure hose past the manifold, and only it
