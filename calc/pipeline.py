@@ -72,7 +72,7 @@ def _line(ln, stages, j: int, spec) -> dict:
             "pressure_drop_max_bar": drop["bar"], "pressure_drop_max_at": drop["at"], "checks": lines.checks[j],
             "ports": {"from_port": ports.plans[j]["from_port"], "to_port": ports.plans[j]["to_port"]},
             "parts": [_part_row(k, p) for k, p in enumerate(a.parts)], "assembly": assembly_record(a),
-            "rating": lines.ratings[j], "sketch": sketch_of(spec, lines.ratings[j]["parts"]),
+            "rating": lines.ratings[j], "walls": lines.walls[j], "sketch": sketch_of(spec, lines.ratings[j]["parts"]),
             "candidates": selection.candidates[j]}
 
 

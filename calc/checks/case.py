@@ -2,9 +2,11 @@
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 
 from ..model.job import field_label
 from ..system.naming import part_ref
+from ..system.walls import line_walls
 
 __all__ = ["LineCase", "said", "fix", "part_path", "label_for", "user_part"]
 
@@ -16,7 +18,9 @@ class LineCase:
     ``index`` is the line's place in the user's list (from 0); ``parts`` are the parts as built (port
     adapters and the assembly's derived length and bends included); ``user_parts`` the user's own;
     ``conditions`` the operating points (name, fluid temperature, flows, pump inlet, starved) and
-    ``results`` this line's result at each; ``rating`` its rating and ``part_ratings`` its parts'.
+    ``results`` this line's result at each; ``rating`` its rating and ``part_ratings`` its parts';
+    ``walls`` (worked out when first read) the wall temperatures of its hoses and tubes
+    (``calc.system.walls.line_walls``).
     """
 
     job: object
@@ -33,6 +37,11 @@ class LineCase:
     rating: dict
     part_ratings: tuple
     last_feed: bool
+
+    @cached_property
+    def walls(self) -> list:
+        """Each hose and tube of the line as built with its wall temperatures (``calc.system.walls``)."""
+        return line_walls(self.job, self.parts, self.conditions, self.index)
 
 
 def said(text: str) -> str:

@@ -6,7 +6,7 @@ from ..system.rating import line_rating
 from .assembly import bend_checks, consistency_checks, length_checks, port_checks, route_check
 from .case import LineCase
 from .hydraulic import budget_check, budgets, inlet_check, regime_check, velocity_check
-from .rating import pressure_checks, suction_check, temperature_checks
+from .rating import pressure_checks, suction_check, temperature_checks, wall_checks
 
 __all__ = ["line_checks", "judge_line", "hydraulics_pass"]
 
@@ -15,7 +15,7 @@ def line_checks(case: LineCase) -> list[dict]:
     """The checks of one line, in the order they are shown: ports and fit, hydraulics, ratings, geometry."""
     out = port_checks(case) + consistency_checks(case)
     out += [c for c in (velocity_check(case), regime_check(case), inlet_check(case), budget_check(case)) if c]
-    out += pressure_checks(case) + temperature_checks(case)
+    out += pressure_checks(case) + temperature_checks(case) + wall_checks(case)
     out += [c for c in (suction_check(case),) if c]
     out += bend_checks(case) + length_checks(case)
     out += [c for c in (route_check(case),) if c]

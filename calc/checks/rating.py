@@ -1,4 +1,5 @@
-"""Rating checks of a line: the pressure it must hold, the design factor, burst, temperature range."""
+"""Rating checks of a line: the pressure it must hold, the design factor, burst, temperature range, and the
+wall temperature of a hose or tube near a heat source."""
 from __future__ import annotations
 
 from ..data.practice import LOW_PRESSURE_BAR, TEMP_CAUTION_K
@@ -6,7 +7,7 @@ from ..model.result import check
 from ..system.naming import part_ref
 from .case import LineCase, said
 
-__all__ = ["pressure_checks", "temperature_checks", "suction_check"]
+__all__ = ["pressure_checks", "temperature_checks", "wall_judgements", "wall_checks", "suction_check"]
 
 
 def _pressure(rating, prs) -> dict:
@@ -98,6 +99,94 @@ def temperature_checks(case: LineCase) -> list:
         out.append(check("temperature", "ok", f"every part's limit is above the fluid's highest {t_max:g} C "
                                               f"({said(at)}) and below its lowest {t_min:g} C"))
     return out
+
+
+#: How the wall estimate's limits are read, by kind of part.
+_BASIS = {"hose": ("fluid", "a hose's temperature rating is for the fluid: the higher of the fluid and the wall "
+                            "is compared"),
+          "tube": ("wall", "a tube's limit is a metal temperature: the hottest point of the wall is compared")}
+_ADVICE = "move the line away from the heat, add a heat sleeve or shield, or use a part rated hotter"
+_RADIATION = ("radiation from the hot surface is not modelled, so the wall facing it runs hotter still: take the "
+              "estimate as a lower bound there")
+
+
+def _judged(wall: dict, flowing: bool | None = None) -> tuple[float, dict] | tuple[None, None]:
+    """The temperature compared with the part's limit and the point where it is highest, over the points
+    with flow (True), without (False) or all (None)."""
+    fluid_rated = _BASIS[wall["kind"]][0] == "fluid"
+
+    def at(pt):
+        hot = max(pt["inner_c"], pt["outer_c"])
+        return max(hot, pt["fluid_temp_c"]) if fluid_rated else hot
+    points = [pt for pt in wall["points"] if flowing is None or pt["flow"] == flowing]
+    if not points:
+        return None, None
+    pt = max(points, key=at)
+    return at(pt), pt
+
+
+def _wall_words(case: LineCase, wall: dict) -> str:
+    """Where the part sits and its wall estimate: with the fluid flowing, and without flow where hotter."""
+    out = f"{wall['label']} of line {case.index + 1} sits in {wall['air_temp_c']:g} C air"
+    t_flow, pt = _judged(wall, True)
+    if pt is not None:
+        surface = "outer" if pt["outer_c"] >= pt["inner_c"] else "inner"
+        out += f"; its wall is estimated at up to {t_flow:.0f} C while the fluid flows ({surface} surface, at " \
+               f"{said(pt['name'])})"
+    t_still, still = _judged(wall, False)
+    if still is not None and (t_flow is None or t_still > t_flow):
+        out += (f"{' and' if pt is not None else '; its wall is taken at'} {t_still:.0f} C with no flow (at "
+                f"{said(still['name'])}: standing fluid warms to the air around it, as in a heat soak)")
+    return out
+
+
+def _wall_judgement(case: LineCase, wall: dict, limit, t_max: float) -> dict:
+    basis, basis_words = _BASIS[wall["kind"]]
+    judged = _judged(wall)[0]
+    out = {"limit_c": limit, "limit_basis": basis, "judged_c": judged, "verdict": None, "message": None}
+    if wall["local_air_temp_c"] is None and (judged <= t_max or limit is None):
+        return out  # the fluid-temperature check already judges this part, or asks for its limit
+    words = _wall_words(case, wall)
+    if limit is None:
+        out.update(verdict="caution", message=f"no temperature limit for {wall['label']} of line {case.index + 1}: "
+                                              f"give the part's maximum temperature from the maker's data; {words}; "
+                                              f"{_RADIATION}")
+    elif judged > limit:
+        out.update(verdict="fail", message=f"{_ADVICE}: {words}, above its {limit:g} C limit ({basis_words}); "
+                                           f"{_RADIATION}")
+    elif judged > limit - TEMP_CAUTION_K:
+        out.update(verdict="caution", message=f"little margin: {words}, within {TEMP_CAUTION_K:g} K of its {limit:g} C "
+                                              f"limit ({basis_words}); {_ADVICE}; {_RADIATION}")
+    else:
+        out.update(verdict="ok", message=f"{words}, at least {TEMP_CAUTION_K:g} K under its {limit:g} C limit "
+                                         f"({basis_words}); {_RADIATION}")
+    return out
+
+
+def wall_judgements(case: LineCase) -> list[dict]:
+    """Each hose and tube's wall estimate (``LineCase.walls``) against its temperature limit.
+
+    A part is judged here when it has its own air temperature, or when its wall runs hotter than the
+    fluid's highest temperature (air hotter than the fluid) and its limit is known; otherwise ``verdict``
+    is None and the fluid-temperature check (``temperature_checks``) judges it, or asks for its limit, as
+    before. The compared temperature is
+    the higher of the fluid and the wall for a hose (its rating is for the fluid), the hottest point of
+    the wall for a tube. Over the limit: fail; within ``TEMP_CAUTION_K``: caution.
+
+    Returns
+    -------
+    list of dict
+        ``LineCase.walls`` rows with ``limit_c``, ``limit_basis`` ('fluid' or 'wall'), ``judged_c``,
+        ``verdict`` and ``message`` added.
+    """
+    limits = {r["index"]: r["max_temp_c"] for r in case.part_ratings}
+    t_max = _temperatures(case)[0]
+    return [dict(w, **_wall_judgement(case, w, limits.get(w["index"]), t_max)) for w in case.walls]
+
+
+def wall_checks(case: LineCase) -> list:
+    """One check per hose or tube whose wall ``wall_judgements`` judges (a part near a heat source)."""
+    return [check("wall temperature", w["verdict"], w["message"]) for w in wall_judgements(case) if w["verdict"]]
 
 
 def suction_check(case: LineCase) -> dict | None:

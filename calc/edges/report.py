@@ -104,6 +104,30 @@ def _assembly_lines(ln: dict, s: _Show) -> list[str]:
     return out
 
 
+def _wall_lines(ln: dict, s: _Show) -> list[str]:
+    """Hoses and tubes near a heat source: the air around each, its wall estimate per operating point, its limit."""
+    w_ = "lines[].walls[]."
+    out = []
+    for w in ln.get("walls", []):
+        if w["verdict"] is None and w["local_air_temp_c"] is None:
+            continue
+
+        def t(v, key):
+            return "unknown" if v is None else s.fig(v, w_ + key, "{:.0f}")
+        own = "its own" if w["local_air_temp_c"] is not None else "the under-hood air"
+        basis = {"fluid": "a fluid-temperature rating", "wall": "a wall-temperature limit"}[w["limit_basis"]]
+        where = {"outer": "outer surface", "inner": "inner surface", "both": "whole wall"}[w["hottest_surface"]]
+        out.append(f"    wall near heat: {w['label']} in {t(w['air_temp_c'], 'air_temp_c')} air ({own}): hottest "
+                   f"wall {t(w['hottest_c'], 'hottest_c')} ({where}, at ‘{w['hottest_at']}’); "
+                   f"limit {t(w['limit_c'], 'limit_c')} ({basis}) [{w['verdict'] or 'not judged'}]")
+        out.append("      outer surface: " + ", ".join(
+            f"‘{pt['name']}’ {s.num(pt['outer_c'], w_ + 'points[].outer_c', '{:.0f}')}" + ("" if pt["flow"] else
+                                                                                          " (no flow)")
+            for pt in w["points"]) + f" {s.unit(w_ + 'points[].outer_c')}; radiation from the hot surface not "
+                                     "modelled (the wall facing it runs hotter)")
+    return out
+
+
 def _fix_words(fx: dict, s: _Show) -> str:
     unit = field_unit(fx["path"])
     value = fx["value"]
@@ -238,6 +262,7 @@ def text_report(res: dict, units: str = "metric") -> str:
             rated = True
             out.extend(_rating_lines(ln, s))
         out.extend(_assembly_lines(ln, s))
+        out.extend(_wall_lines(ln, s))
         for ch in ln["checks"]:
             out.append(f"    [{ch['verdict']:^7}] {ch['check']}: {ch['message']}")
             if ch.get("fix"):

@@ -57,6 +57,15 @@ def _bends() -> ListOf:
                                         "against the part's minimum bend radius.")
 
 
+def _local_air() -> Field:
+    return Field("local_air_temp_c", "Air temperature around this part", unit="temp_c", default=None, ge=-50,
+                 le=400,
+                 help="For a part routed near an exhaust manifold, turbo or catalyst: the air temperature around "
+                      "it there. The part's heat exchange and its wall temperature use it; empty means the job's "
+                      "under-hood air. Radiation from the hot surface itself is not modelled, so the wall near it "
+                      "runs hotter than the estimate: keep the line away, or sleeve or shield it.")
+
+
 _rise = Field("rise_m", "Rise", unit="length_m", default=0.0, ge=-10, le=10,
               help="Height gained from this part's inlet to its outlet (negative for a fall).")
 
@@ -83,6 +92,7 @@ HOSE = Record("hose", "Hose", (
           help="From the maker's datasheet; overrides the class table."),
     Field("wall_mm", "Hose wall thickness", unit="length_mm", default=None, gt=0, le=30,
           help="For heat rejection through the wall; a typical value for the bore is used when empty."),
+    _local_air(),
 ))
 
 TUBE = Record("tube", "Rigid tube", (
@@ -101,6 +111,7 @@ TUBE = Record("tube", "Rigid tube", (
           help="Overrides the material table (from the tube maker's certificate)."),
     Field("max_temp_c", "Maximum temperature", unit="temp_c", default=None, gt=-60, le=600,
           help="Overrides the material table."),
+    _local_air(),
 ))
 
 FITTING = Record("fitting", "Fitting or adapter", (

@@ -155,6 +155,8 @@ REJECTED = (
         num("ua_w_k", "conductance_w_k", "Conductance to the air"),
         num("heat_w", "power_w", "Heat rejected"),
         num("surface_temp_c", "temp_c", "Outer surface temperature"),
+        num("air_temp_c", "temp_c", "Air around the part", "The part's own air temperature where given, else the "
+                                                            "under-hood air; a part in hotter air gains heat."),
         num("outside_mm", "length_mm", "Outside diameter")))),
 )
 CONDITION = (
@@ -248,6 +250,40 @@ PART_RATING = (
     num("barlow_burst_bar", "pressure_bar", "Burst by Barlow", "Tubes only."),
     num("lame_burst_bar", "pressure_bar", "Burst by Lame", "Tubes only."),
     num("tensile_mpa", "stress_mpa", "Tensile strength used", "Tubes only (derated where the table says)."),
+)
+WALL_POINT = (
+    text("name", "Operating point"),
+    num("fluid_temp_c", "temp_c", "Fluid temperature"),
+    num("air_temp_c", "temp_c", "Air around the part"),
+    flag("flow", "Fluid flowing", "False without flow through the line (full lock): both surfaces are then taken "
+                                  "at the hotter of the fluid and the air (heat soak, conservative)."),
+    num("inner_c", "temp_c", "Inner surface of the wall"),
+    num("outer_c", "temp_c", "Outer surface of the wall", "Inside film, wall and outside film in series; radiation "
+                                                          "from a hot surface nearby not modelled (it would make "
+                                                          "the wall hotter)."),
+)
+WALL = (
+    cnt("index", "Place in the line", "Position in the line as built (port adapters included), from 0."),
+    cnt("job_part", "Part", "Position in the user's own parts list, from 0.", True),
+    sentence("label", "Part", "The part in words, as the messages name it."),
+    text("kind", "Kind", "hose or tube."),
+    num("local_air_temp_c", "temp_c", "Air temperature around this part", "The part's own, near a heat source; "
+                                                                         "null: the job's under-hood air.", True),
+    num("air_temp_c", "temp_c", "Air around the part", "The one its heat exchange and wall estimate use."),
+    num("hottest_c", "temp_c", "Hottest point of the wall", "Over the operating points; a lower bound near a hot "
+                                                             "surface (radiation not modelled)."),
+    text("hottest_at", "Hottest at", "The operating point of the hottest wall."),
+    text("hottest_surface", "Hottest surface", "outer (air hotter than the fluid), inner, or both (no flow: the "
+                                                "whole wall at one temperature)."),
+    num("limit_c", "temp_c", "Temperature limit", "The part's rating (the same as lines[].rating.parts[]).", True),
+    text("limit_basis", "Limit rates", "fluid: a hose's rating is for the fluid temperature, so the higher of the "
+                                       "fluid and the wall is compared; wall: a tube's metal temperature."),
+    num("judged_c", "temp_c", "Temperature compared with the limit"),
+    Out("verdict", "verdict", "Wall verdict", nullable=True,
+        help="fail over the limit, caution within 10 K of it or with no limit known; null where the part has no "
+             "air of its own and its wall runs no hotter than the fluid (the fluid-temperature check judges it)."),
+    sentence("message", "Wall finding", "The 'wall temperature' check's finding; null with no verdict.", True),
+    lst("points", "Per operating point", rec("", "Point", WALL_POINT)),
 )
 ROUTE = (
     num("length_mm", "length_mm", "Route length", "Polyline through the measured points."),
@@ -375,6 +411,8 @@ LINE = (
     lst("parts", "Parts as built", rec("", "Part", LINE_PART)),
     rec("assembly", "Hose assembly", ASSEMBLY, "The cut length, slack and bends, worked out once."),
     rec("rating", "Rating", RATING),
+    lst("walls", "Wall temperatures", rec("", "Hose or tube", WALL), "Each hose and tube as built: its wall "
+        "between the fluid and the air around it at every operating point, and its verdict near a heat source."),
     rec("sketch", "Route sketch", SKETCH, "The route drawn from the measured points; null without them.",
         nullable=True),
     lst("candidates", "Hose candidates", rec("", "Candidate", CANDIDATE),

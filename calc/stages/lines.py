@@ -3,13 +3,16 @@
 Per line: the pressure it must hold, its weakest part and margins (``calc.system.rating``), and
 every check of ``calc.checks.line.line_checks``: ports and fit, hydraulics, ratings, bends and
 length. The selection stage judges each candidate assembly with the same function, so the two
-always agree. The line's verdict is the worst of its checks.
+always agree. The line's verdict is the worst of its checks. Per line also the wall temperature of
+each hose and tube and its verdict (``calc.checks.rating.wall_judgements``, the same judgement the
+wall-temperature check gives).
 """
 from __future__ import annotations
 
 from dataclasses import dataclass
 
 from ..checks.line import judge_line
+from ..checks.rating import wall_judgements
 from ..model.result import worst_verdict
 from ..model.schema import Problem
 
@@ -18,12 +21,14 @@ __all__ = ["LinesSection", "lines_stage", "last_feed_line"]
 
 @dataclass(frozen=True)
 class LinesSection:
-    """Per line: ``ratings`` (the result's ``lines[].rating``), ``checks`` and ``verdicts``; and ``warnings``."""
+    """Per line: ``ratings`` (the result's ``lines[].rating``), ``checks``, ``verdicts`` and ``walls`` (the
+    result's ``lines[].walls``); and ``warnings``."""
 
     ratings: tuple
     checks: tuple
     verdicts: tuple
     warnings: tuple
+    walls: tuple
 
 
 def last_feed_line(job) -> int | None:
@@ -62,10 +67,12 @@ def lines_stage(job, ports, assembly, circuit) -> LinesSection:
     LinesSection
     """
     feed = last_feed_line(job)
-    ratings, checks, warnings = [], [], []
+    ratings, checks, warnings, walls = [], [], [], []
     for ln, plans, a in zip(job.lines, ports.plans, assembly.assemblies):
         case, found = judge_line(job, ln.index, ln.spec, ln.parts, plans, a, circuit.conditions, ln.index == feed)
         ratings.append(case.rating)
         checks.append(found)
+        walls.append(wall_judgements(case))
         warnings.extend(_bore_warnings(ln.index, ln.parts))
-    return LinesSection(tuple(ratings), tuple(checks), tuple(worst_verdict(c) for c in checks), tuple(warnings))
+    return LinesSection(tuple(ratings), tuple(checks), tuple(worst_verdict(c) for c in checks), tuple(warnings),
+                        tuple(walls))

@@ -17,6 +17,7 @@ from ..model.result import check, worst_verdict
 from ..physics.lumped import STEADY_MAX_C, STEADY_TOL_K, adiabatic_warmup, seconds_to_reach, solve_steady, warmup
 from ..system.circuit import LPM
 from ..system.thermal_model import ThermalModel
+from ..system.walls import METHOD as WALL_METHOD
 
 __all__ = ["METHOD", "ThermalSection", "thermal_stage", "lowest_part_limit"]
 
@@ -58,6 +59,14 @@ METHOD = [
     "Cooler advice: the rating (or tube length) that brings the steady temperature down to the fluid "
     "limit less the margin, computed with no cooler fitted.",
 ]
+
+
+#: Said when a part sits in its own air (``local_air_temp_c``).
+LOCAL_AIR_METHOD = (
+    "Parts with their own 'Air temperature around this part' (near an exhaust manifold, turbo or catalyst) exchange "
+    "heat with that air, the cooler and the reservoir with the under-hood air; a part in air hotter than the fluid "
+    "adds heat to it (a negative rejection), and the steady-temperature bracket starts at the coolest air of any "
+    "surface. Radiation from the hot surface is not counted: it would add heat and make the wall hotter.")
 
 
 @dataclass(frozen=True)
@@ -187,7 +196,10 @@ def _steady(model: ThermalModel, duty: list, limits: dict, out: dict, checks: li
                          "of time is 0): give each its share of time to get a steady temperature"}
         checks.append(check("steady temperature", "caution", out["steady"]["message"]))
         return None
-    res = solve_steady(lambda t: (lambda h, r, _: h - r)(*_weighted(model, duty, t)), ta, STEADY_MAX_C)
+    # from the coolest air any surface sits in: below it every surface adds heat, so the net heat there is
+    # positive whatever parts sit in hotter air (they only add more)
+    res = solve_steady(lambda t: (lambda h, r, _: h - r)(*_weighted(model, duty, t)), model.t_air_min_c,
+                       STEADY_MAX_C)
     out["steady"] = res
     steady = res["temp_c"]
     if res["status"] not in ("converged", "no heat"):
@@ -360,6 +372,9 @@ def thermal_stage(job, circuit, ratings) -> ThermalSection:
     out = {"limit_c": lim["limit"], "limit_basis": lim["basis"], "target_c": lim["target"],
            "margin_c": lim["margin"], "air_temp_c": lim["air"], "method": list(METHOD),
            "hose_wall_defaulted": list(model.notes)}
+    out["method"].append(WALL_METHOD)
+    if any(s["local"] is not None for s in model.surfaces):
+        out["method"].append(LOCAL_AIR_METHOD)
     if model.notes:
         out["method"].append("Hose walls not given (" + ", ".join(_place_words(p) for p in model.notes) + ") use a "
                              "typical wall for the bore (from memory, braided hydraulic hose); give the hose wall "

@@ -14,8 +14,12 @@ The model (stated assumptions; the sentences are repeated in ``thermal.method`` 
   are added in full to the fluid (conservative: part of them leaves through the
   pump body and the belt); the leakage is not counted again;
 * every line part that is a hose or a tube rejects heat from its outer
-  surface to the under-hood air: inside film, wall conduction and outside film
-  in series; fittings and devices are not counted (small surfaces);
+  surface to the air around it: inside film, wall conduction and outside film
+  in series; fittings and devices are not counted (small surfaces). That air is
+  the part's own ``local_air_temp_c`` (a part routed near an exhaust manifold or
+  turbo) or else the job's under-hood air; a part in air hotter than the fluid
+  gains heat (a negative rejection). Radiation from a hot surface nearby is not
+  modelled. The cooler and the reservoir are in the job's under-hood air;
 * the fluid in a part is taken at the bulk temperature and the part rejects
   ``C (1 - exp(-UA/C)) (T - T_air)`` with ``C`` the fluid's capacity rate
   (effectiveness-NTU with the air as an infinite reservoir, Cr = 0), so a
@@ -39,7 +43,7 @@ from ..physics.pump import mechanical_loss_w, pump_heat_w
 from .circuit import BAR, LPM
 from .line import part_bore_mm
 
-__all__ = ["default_hose_wall_mm", "ThermalModel"]
+__all__ = ["default_hose_wall_mm", "line_surface", "ThermalModel"]
 
 
 def default_hose_wall_mm(bore_mm: float) -> float:
@@ -61,6 +65,54 @@ def default_hose_wall_mm(bore_mm: float) -> float:
         if bore_mm <= b1:
             return w0 + (bore_mm - b0) / (b1 - b0) * (w1 - w0)
     return rows[-1][1]
+
+
+def line_surface(p, th) -> dict | None:
+    """The heat-exchanging surface of a hose or tube part; None for any other part.
+
+    Parameters
+    ----------
+    p : mapping
+        A prepared part (``kind``, bore, ``length_m``, ``roughness_mm``, a tube's ``od_mm`` and material,
+        a hose's ``wall_mm``, ``local_air_temp_c``).
+    th : mapping
+        The job's thermal settings (``air_temp_c``, ``hose_conductivity_w_mk``).
+
+    Returns
+    -------
+    dict or None
+        ``d_i``, ``d_o`` [m], wall conductivity ``k`` [W/(m K)], ``length`` [m], relative roughness
+        ``eD``, the air around it ``t_air`` [C] (its own, else the job's), ``local`` (its own or None)
+        and ``wall_defaulted`` (a hose wall taken from the typical table).
+
+    Examples
+    --------
+    A tube in its own 180 C air (low-carbon steel, 50 W/(m K) in the material table, from memory):
+
+    >>> s = line_surface({"kind": "tube", "od_mm": 10.0, "wall_mm": 1.0, "length_m": 0.5,
+    ...                   "roughness_mm": 0.0015, "material": "steel-low-carbon", "local_air_temp_c": 180.0},
+    ...                  {"air_temp_c": 50.0, "hose_conductivity_w_mk": 0.25})
+    >>> round(s["d_i"], 6), s["k"], s["t_air"], s["local"]
+    (0.008, 50.0, 180.0, 180.0)
+    """
+    kind = p["kind"]
+    if kind not in ("hose", "tube"):
+        return None
+    d_i = part_bore_mm(p) * 1e-3
+    defaulted = False
+    if kind == "hose":
+        wall = p.get("wall_mm")
+        if wall is None:
+            wall, defaulted = default_hose_wall_mm(d_i * 1e3), True
+        k_wall = th["hose_conductivity_w_mk"]
+        d_o = d_i + 2.0 * wall * 1e-3
+    else:
+        d_o = p["od_mm"] * 1e-3
+        k_wall = tube_materials()[p.get("material") or "steel-low-carbon"]["conductivity_w_mk"]
+    local = p.get("local_air_temp_c")
+    return {"kind": kind, "d_i": d_i, "d_o": d_o, "k": k_wall, "length": p["length_m"],
+            "eD": p["roughness_mm"] * 1e-3 / d_i, "t_air": th["air_temp_c"] if local is None else local,
+            "local": local, "wall_defaulted": defaulted}
 
 
 def _user_index(part, k: int) -> int:
@@ -93,25 +145,17 @@ class ThermalModel:
         for ln in circuit.lines:
             for k, p in enumerate(ln.parts):
                 self._add_part(ln, k, p)
+        #: The coolest air any surface sits in, [C]: no steady temperature lies below it.
+        self.t_air_min_c = min([self.t_air_c] + [s["t_air"] for s in self.surfaces])
 
     def _add_part(self, ln, k: int, p) -> None:
-        kind = p["kind"]
-        if kind in ("hose", "tube"):
-            d_i = part_bore_mm(p) * 1e-3
-            if kind == "hose":
-                wall = p.get("wall_mm")
-                if wall is None:
-                    wall = default_hose_wall_mm(d_i * 1e3)
-                    self.notes.append(f"lines[{ln.index}].parts[{_user_index(p, k)}].wall_mm")
-                k_wall = self.th["hose_conductivity_w_mk"]
-                d_o = d_i + 2.0 * wall * 1e-3
-            else:
-                d_o = p["od_mm"] * 1e-3
-                k_wall = tube_materials()[p.get("material")]["conductivity_w_mk"]
-            self.surfaces.append({"line": ln.index, "part": k, "kind": kind, "d_i": d_i, "d_o": d_o,
-                                  "k": k_wall, "length": p["length_m"], "eD": p["roughness_mm"] * 1e-3 / d_i})
-            self.volume_m3 += 0.25 * math.pi * d_i * d_i * p["length_m"]
-        elif kind == "fitting":
+        surface = line_surface(p, self.th)
+        if surface is not None:
+            if surface["wall_defaulted"]:
+                self.notes.append(f"lines[{ln.index}].parts[{_user_index(p, k)}].wall_mm")
+            self.surfaces.append(dict(surface, line=ln.index, part=k))
+            self.volume_m3 += 0.25 * math.pi * surface["d_i"] * surface["d_i"] * p["length_m"]
+        elif p["kind"] == "fitting":
             self.volume_m3 += 0.25 * math.pi * (p["bore_mm"] * 1e-3) ** 2 * p.get("passage_length_mm", 25.0) * 1e-3
 
     # -- heat generated ------------------------------------------------------------
@@ -133,28 +177,35 @@ class ThermalModel:
     # -- heat rejected ------------------------------------------------------------
     def rejection(self, t_c: float, q_m3_s: float, air_speed_m_s: float, with_cooler: bool = True,
                   detail: bool = False) -> dict:
-        """Heat rejected [W] at bulk temperature ``t_c`` with circuit flow ``q_m3_s``."""
+        """Heat rejected [W] at bulk temperature ``t_c`` with circuit flow ``q_m3_s``.
+
+        Each hose and tube exchanges heat with its own air (``line_surface``): a part in air hotter than
+        the fluid adds heat (its ``heat_w`` is negative); the reservoir and the cooler use the job's air.
+        With ``detail``, ``parts`` lists each line surface with its conductance, heat, outer surface
+        temperature and air temperature."""
         st = self.circuit.state(t_c)
-        ta = self.t_air_c
-        dt = t_c - ta
+        dt = t_c - self.t_air_c
         cap = st.rho_kg_m3 * st.cp_j_kgk * q_m3_s
         pr = st.mu_pa_s * st.cp_j_kgk / st.k_w_mk
         lines_w = 0.0
         parts = [] if detail else None
-        if cap > 0.0 and dt != 0.0:
-            same = {}  # parts of one geometry share their UA per metre (exact: same inputs)
+        if cap > 0.0:
+            same = {}  # parts of one geometry in one air share their UA per metre (exact: same inputs)
             for s in self.surfaces:
-                key = (s["d_i"], s["d_o"], s["k"], s["eD"])
+                ta = s["t_air"]
+                if t_c == ta:
+                    continue
+                key = (s["d_i"], s["d_o"], s["k"], s["eD"], ta)
                 if key not in same:
                     h_i = h_inside_pipe(s["d_i"], q_m3_s, st.nu_m2_s, st.k_w_mk, pr, s["eD"])
                     same[key] = cylinder_ua_per_m(s["d_i"], s["d_o"], s["k"], t_c, ta, air_speed_m_s, h_i)
                 ua_m, ts = same[key]
                 ua = ua_m * s["length"]
-                w = cap * (1.0 - math.exp(-ua / cap)) * dt
+                w = cap * (1.0 - math.exp(-ua / cap)) * (t_c - ta)
                 lines_w += w
                 if detail:
                     parts.append({"line": s["line"], "part": s["part"], "ua_w_k": ua, "heat_w": w,
-                                  "surface_temp_c": ts, "outside_mm": s["d_o"] * 1e3})
+                                  "surface_temp_c": ts, "air_temp_c": ta, "outside_mm": s["d_o"] * 1e3})
         reservoir_w = self.th["reservoir_area_m2"] * self.th["reservoir_h_w_m2k"] * dt
         cooler_w = self.cooler_w(t_c, q_m3_s, air_speed_m_s, st) if with_cooler else 0.0
         out = {"lines_w": lines_w, "reservoir_w": reservoir_w, "cooler_w": cooler_w,

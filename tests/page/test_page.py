@@ -671,3 +671,50 @@ def test_the_form_says_where_the_length_and_bends_of_a_routed_hose_come_from(pag
     assert length.text_content().startswith("Worked out from the line's route points and the slack it needs: cut to 1615 mm")
     bends = page.locator('[data-assembly-note="bends"]').first
     assert bends.text_content().startswith("The route points give this hose's bends: 90° at 200 mm")
+
+
+def test_a_hose_near_the_manifold_shows_its_air_wall_and_verdict(page, site):
+    import calc
+
+    job = _demo(site, "swap-remote-reservoir")
+    _open_job(page, job, "swap.json")
+    expected = calc.evaluate(copy.deepcopy(job))
+    wall = next(w for w in expected["lines"][0]["walls"] if w["job_part"] == 1)
+    assert wall["verdict"] == "fail" and wall["local_air_temp_c"] == 180.0
+    # the form: the field comes from the job model beside every hose and tube, filled where the job gives it
+    hose = page.locator('[data-path="lines[0].parts"] > .list-items > li').nth(1)
+    fld = hose.locator('.fld[data-fld="local_air_temp_c"]')
+    assert "Air temperature around this part" in fld.locator(".fld-label").text_content()
+    assert "radiation from the hot surface itself is not modelled" in fld.locator("details.hint").text_content().lower()
+    assert fld.locator("input").input_value() == "180"
+    tube = page.locator('[data-path="lines[1].parts"] > .list-items > li').nth(1)
+    assert tube.locator('.fld[data-fld="local_air_temp_c"] input').input_value() == ""
+    # the line card: the engine's wall figures and verdict, and the check in words
+    card = page.locator('#line-results [data-line-card="0"]')
+    row = card.locator('[data-walls] tr[data-wall-part="1"]')
+    assert row.get_attribute("data-verdict") == "fail"
+    _close(row.locator('[data-field="hottest_c"]').text_content(), wall["hottest_c"], "hottest wall")
+    _close(row.locator('[data-field="air_temp_c"]').text_content(), 180.0, "air around the hose")
+    check = card.locator('[data-check="wall temperature"][data-verdict="fail"]')
+    assert "heat sleeve or shield" in check.text_content() and "radiation" in check.text_content()
+    assert card.locator('[data-walls] tr').count() == 2  # a heading row and the one hose near the heat
+    SHOTS.mkdir(parents=True, exist_ok=True)
+    card.locator("[data-walls]").scroll_into_view_if_needed()
+    page.screenshot(path=str(SHOTS / "wall-near-heat-1366x768.png"))
+    # US units: the same figures converted by their declared unit
+    page.check('input[name="units"][value="us"]')
+    _settle(page)
+    _close(row.locator('[data-field="hottest_c"]').text_content(), _to_us(wall["hottest_c"], "temp_c"), "hottest, US")
+    page.check('input[name="units"][value="metric"]')
+    _settle(page)
+    # the build sheet: the part says it runs near heat, with the verdict
+    page.emulate_media(media="print")
+    try:
+        near = page.locator('#sheet [data-sheet-line="0"] [data-near-heat="1"]')
+        assert near.locator(".badge").get_attribute("data-verdict") == "fail"
+        assert "Near heat: 180 °C air around it" in near.text_content()
+        assert "heat sleeve or shield" in near.text_content()
+        near.scroll_into_view_if_needed()
+        page.screenshot(path=str(SHOTS / "wall-near-heat-sheet-print.png"), full_page=True)
+    finally:
+        page.emulate_media(media="screen")

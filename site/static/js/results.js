@@ -75,6 +75,38 @@ function assemblyBlock(line) {
   return el("div", { class: "assembly" }, el("h4", {}, declared("lines[].assembly").label), dl);
 }
 
+// Hoses and tubes near a heat source (lines[].walls): the air around each, its hottest wall and the verdict,
+// as the engine gives them; shown for the parts that have their own air or whose wall the engine judged.
+const WALL_SURFACE = { outer: "outer surface", inner: "inner surface", both: "whole wall, no flow" };
+function wallsBlock(line) {
+  const walls = (line.walls || []).filter((w) => w.local_air_temp_c != null || w.verdict != null);
+  if (!walls.length) return null;
+  const W = "lines[].walls[].";
+  const T = U("temp_c");
+  const table = el("table", { class: "walls-table" });
+  table.append(el("thead", {}, el("tr", {}, ...[declared(`${W}label`).label, heading(`${W}air_temp_c`),
+    heading(`${W}hottest_c`), heading(`${W}limit_c`), declared(`${W}verdict`).label].map((t) => el("th", { scope: "col" }, t)))));
+  const tb = el("tbody");
+  for (const w of walls) {
+    const basis = w.limit_basis === "fluid" ? " (fluid rating)" : " (wall)";
+    tb.append(el("tr", { "data-wall-part": String(w.job_part), "data-verdict": w.verdict || "" },
+      el("th", { scope: "row" }, w.label),
+      el("td", { class: "num" }, resCell("span", w.air_temp_c, `${W}air_temp_c`, "air_temp_c", 0),
+        w.local_air_temp_c != null ? el("span", { class: "small" }, " its own") : ""),
+      el("td", { class: "num" }, resCell("span", w.hottest_c, `${W}hottest_c`, "hottest_c", 0),
+        el("span", { class: "small" }, ` ${WALL_SURFACE[w.hottest_surface] || w.hottest_surface}, at ${w.hottest_at}`)),
+      el("td", { class: "num" }, w.limit_c == null ? "unknown" : resCell("span", w.limit_c, `${W}limit_c`, "limit_c", 0),
+        el("span", { class: "small" }, w.limit_c == null ? "" : basis)),
+      el("td", {}, w.verdict ? badge(w.verdict) : "–")));
+  }
+  table.append(tb);
+  return el("div", { class: "walls", "data-walls": "" }, el("h4", {}, `${declared("lines[].walls").label} near heat`),
+    el("div", { class: "table-wrap" }, table),
+    el("p", { class: "small" }, "Estimated from the films and the wall in series; radiation from the hot surface is not "
+      + "modelled, so the wall facing it runs hotter still. Keep lines away from exhaust heat, or sleeve or shield them, "
+      + "and check the maker's rating."));
+}
+
 // The button that makes a check's edit: "Set Bore of part 1 to 8 mm".
 function fixButton(fix, actions) {
   const text = `Set ${fix.label} to ${editValue(fix.path, fix.value)}`;
@@ -209,6 +241,8 @@ function lineCards(result, actions) {
     const sketch = routeSketch(line.sketch, li);
     if (sketch) card.append(el("h4", {}, declared("lines[].sketch").label), sketch);
     card.append(ratingBlock(line.rating));
+    const walls = wallsBlock(line);
+    if (walls) card.append(walls);
     card.append(el("h4", {}, "Per part and operating point"), partsTable(result, li));
     if (line.candidates && line.candidates.length) card.append(candidatesBlock(line.candidates, li, actions));
     box.append(card);

@@ -179,6 +179,17 @@ function ratingRows(ra) {
   ];
 }
 
+// A part near a heat source on the sheet: the air around it and the engine's wall estimate and verdict.
+function nearHeat(w) {
+  const T = unitLabel("temp_c");
+  const t = (v) => (v == null ? "unknown" : `${fmt(v, "temp_c", 0)} ${T}`);
+  return el("span", { class: "near-heat", "data-near-heat": String(w.job_part) }, w.verdict ? badge(w.verdict) : "",
+    ` Near heat: ${t(w.air_temp_c)} air around it; wall estimated up to ${t(w.hottest_c)} `
+    + `(radiation not counted: hotter still near the source); limit ${t(w.limit_c)}`
+    + `${w.limit_c == null ? "" : w.limit_basis === "fluid" ? " (fluid rating)" : " (wall)"}. `
+    + "Keep it away from the heat, or fit a heat sleeve or shield.");
+}
+
 function lineSection(job, result, line, li) {
   const r = (result.lines || [])[li] || { checks: [] };
   const sec = el("section", { class: "sheet-line", "data-sheet-line": String(li) });
@@ -198,7 +209,10 @@ function lineSection(job, result, line, li) {
     }
     const p = (line.parts || [])[b.job_part] || {};
     const cut = a && a.hose_part === b.job_part ? a.hose_cut_mm : null;
-    ul.append(el("li", { "data-sheet-part": String(b.job_part) }, `${b.job_part + 1}. ${partSpec(p, partDash(result, li, b.job_part), cut)}`));
+    const li_ = el("li", { "data-sheet-part": String(b.job_part) }, `${b.job_part + 1}. ${partSpec(p, partDash(result, li, b.job_part), cut)}`);
+    const w = (r.walls || []).find((x) => x.job_part === b.job_part && (x.local_air_temp_c != null || x.verdict != null));
+    if (w) li_.append(el("br"), nearHeat(w));
+    ul.append(li_);
   }
   sec.append(el("div", { class: "sheet-block" }, el("h4", {}, "Parts in flow order (hose, tube, fittings and adapters)"), ul));
   const bad = (r.checks || []).filter((c) => c.verdict !== "ok");
