@@ -37,11 +37,13 @@ class LineCase:
     rating: dict
     part_ratings: tuple
     last_feed: bool
+    memo: dict | None = None
 
     @cached_property
     def walls(self) -> list:
-        """Each hose and tube of the line as built with its wall temperatures (``calc.system.walls``)."""
-        return line_walls(self.job, self.parts, self.conditions, self.index)
+        """Each hose and tube of the line as built with its wall temperatures (``calc.system.walls``); ``memo``
+        (shared by the candidates of one line) keeps the wall points already worked out."""
+        return line_walls(self.job, self.parts, self.conditions, self.index, self.memo)
 
 
 def said(text: str) -> str:

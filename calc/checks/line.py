@@ -22,10 +22,10 @@ def line_checks(case: LineCase) -> list[dict]:
     return out
 
 
-def _case(job, j, spec, user_parts, plans, assembly, solved, last_feed, rating=None, prs=()) -> LineCase:
+def _case(job, j, spec, user_parts, plans, assembly, solved, last_feed, rating=None, prs=(), memo=None) -> LineCase:
     ln = job.lines[j]
     return LineCase(job, j, ln.name, ln.role, spec, tuple(user_parts), assembly.parts, plans, assembly, tuple(solved),
-                    tuple(c["lines"][j] for c in solved), rating, tuple(prs), last_feed)
+                    tuple(c["lines"][j] for c in solved), rating, tuple(prs), last_feed, memo)
 
 
 def hydraulics_pass(job, j: int, spec, user_parts, plans: dict, assembly, solved, last_feed: bool) -> bool:
@@ -58,7 +58,8 @@ def judge_line(job, j: int, spec, user_parts, plans: dict, assembly, solved, las
     last_feed : bool
         Whether the line is the last feed line (the pump inlet is judged on it).
     memo : dict, optional
-        Part ratings and labels kept between calls on one line (``calc.system.rating.part_ratings``).
+        Part ratings, labels and wall points kept between calls on one line (``calc.system.rating.part_ratings``,
+        ``calc.system.walls.line_walls``).
 
     Returns
     -------
@@ -71,5 +72,5 @@ def judge_line(job, j: int, spec, user_parts, plans: dict, assembly, solved, las
     rating, prs = line_rating(assembly.parts, ln.role, job.ratings, job.pump["relief_bar"], results,
                               [c["name"] for c in solved], (max(temps), min(temps)), budgets(ln.role, spec), part_ref,
                               memo)
-    case = _case(job, j, spec, user_parts, plans, assembly, solved, last_feed, rating, prs)
+    case = _case(job, j, spec, user_parts, plans, assembly, solved, last_feed, rating, prs, memo)
     return case, line_checks(case)

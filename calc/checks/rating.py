@@ -185,7 +185,16 @@ def wall_judgements(case: LineCase) -> list[dict]:
 
 
 def wall_checks(case: LineCase) -> list:
-    """One check per hose or tube whose wall ``wall_judgements`` judges (a part near a heat source)."""
+    """One check per hose or tube whose wall ``wall_judgements`` judges (a part near a heat source).
+
+    With no part in air of its own and the under-hood air no hotter than the fluid's highest temperature,
+    no wall can be judged (a wall lies between the fluid and the air at every point, so it never runs hotter
+    than the fluid's highest): the walls are then not worked out (the candidates of a line are judged often).
+    """
+    t_max = _temperatures(case)[0]
+    if case.job.thermal["air_temp_c"] <= t_max and not any(
+            p["kind"] in ("hose", "tube") and p.get("local_air_temp_c") is not None for p in case.parts):
+        return []
     return [check("wall temperature", w["verdict"], w["message"]) for w in wall_judgements(case) if w["verdict"]]
 
 

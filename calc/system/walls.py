@@ -105,7 +105,7 @@ def line_walls(job, parts, solved, j: int, memo: dict | None = None) -> list[dic
     j : int
         The line's place in the user's list, from 0.
     memo : dict, optional
-        Fluid states kept between calls.
+        Fluid states and wall points kept between calls (the candidates of one line share it).
 
     Returns
     -------
@@ -125,7 +125,12 @@ def line_walls(job, parts, solved, j: int, memo: dict | None = None) -> list[dic
         for cond, op in zip(job.conditions, solved):
             t_f = op["fluid_temp_c"]
             q = op["lines"][j]["flow_lpm"] * LPM
-            inner, outer = wall_point(surface, t_f, q, cond["air_speed_m_s"], _state(job.fluid, t_f, memo))
+            key = ("wall", surface["d_i"], surface["d_o"], surface["k"], surface["eD"], surface["t_air"], t_f, q,
+                   cond["air_speed_m_s"])  # the same part at the same point: the same wall (exact)
+            got = memo.get(key)
+            if got is None:
+                got = memo[key] = wall_point(surface, t_f, q, cond["air_speed_m_s"], _state(job.fluid, t_f, memo))
+            inner, outer = got
             points.append({"name": op["name"], "fluid_temp_c": t_f, "air_temp_c": surface["t_air"], "flow": q > 0.0,
                            "inner_c": inner, "outer_c": outer})
         hot = max(points, key=lambda pt: max(pt["inner_c"], pt["outer_c"]))

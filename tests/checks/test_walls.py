@@ -18,8 +18,12 @@ def _case(kind, outer_c, limit_c, local_c=180.0, fluid_c=90.0, flow=True):
             "hottest_surface": "outer",
             "points": [{"name": "idle", "fluid_temp_c": fluid_c, "air_temp_c": 180.0, "flow": flow,
                         "inner_c": min(outer_c, fluid_c + 0.5 * (outer_c - fluid_c)), "outer_c": outer_c}]}
+    # the under-hood air of the job: the points' 180 C where the part has no air of its own (its wall hotter
+    # than the fluid must come from air hotter than the fluid)
+    job = SimpleNamespace(thermal={"air_temp_c": 180.0 if local_c is None else 50.0})
+    parts = ({"kind": "fitting"}, {"kind": kind, "local_air_temp_c": local_c})
     return SimpleNamespace(index=0, walls=[wall], conditions=({"name": "idle", "fluid_temp_c": fluid_c},),
-                           part_ratings=({"index": 1, "max_temp_c": limit_c},))
+                           part_ratings=({"index": 1, "max_temp_c": limit_c},), job=job, parts=parts)
 
 
 @pytest.mark.parametrize("outer_c, verdict", [(121.5, "fail"), (121.0, "caution"), (111.5, "caution"),
@@ -84,3 +88,17 @@ def test_a_hose_clear_of_the_heat_passes_and_candidates_are_judged_alike():
     hot = evaluate(hot_job(local_c=300.0))["lines"][0]
     # every candidate hose sits in the same 300 C air (the swap keeps the part's own air): none passes it
     assert hot["candidates"] and all("wall temperature" in cand["failed"] for cand in hot["candidates"])
+
+
+def test_walls_are_not_worked_out_where_none_can_be_judged():
+    # Source: a wall lies between the fluid and the air (resistances in series, exact): with no part in air of its
+    # own and the under-hood air (50 C) under the fluid's highest (90 C), no wall can run hotter than the fluid,
+    # so there is nothing to judge and the walls are not read at all.
+    class NoWalls(SimpleNamespace):
+        @property
+        def walls(self):
+            raise AssertionError("walls read")
+    case = _case("hose", 80.0, 121.0, local_c=None)
+    quiet = NoWalls(**{k: v for k, v in vars(case).items() if k != "walls"})
+    quiet.job = SimpleNamespace(thermal={"air_temp_c": 50.0})
+    assert wall_checks(quiet) == []
