@@ -45,6 +45,12 @@ class LineCase:
         (shared by the candidates of one line) keeps the wall points already worked out."""
         return line_walls(self.job, self.parts, self.conditions, self.index, self.memo)
 
+    @cached_property
+    def own_air_walls(self) -> list:
+        """``walls`` of the hoses and tubes in air of their own (``local_air_temp_c``) only."""
+        return line_walls(self.job, self.parts, self.conditions, self.index, self.memo,
+                          only=lambda p: p.get("local_air_temp_c") is not None)
+
 
 def said(text: str) -> str:
     """User text quoted for a sentence: ‘like this’ (the unit conversion never touches it).

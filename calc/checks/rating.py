@@ -179,23 +179,31 @@ def wall_judgements(case: LineCase) -> list[dict]:
         ``LineCase.walls`` rows with ``limit_c``, ``limit_basis`` ('fluid' or 'wall'), ``judged_c``,
         ``verdict`` and ``message`` added.
     """
+    return _judge_walls(case, case.walls)
+
+
+def _judge_walls(case: LineCase, walls) -> list[dict]:
     limits = {r["index"]: r["max_temp_c"] for r in case.part_ratings}
     t_max = _temperatures(case)[0]
-    return [dict(w, **_wall_judgement(case, w, limits.get(w["index"]), t_max)) for w in case.walls]
+    return [dict(w, **_wall_judgement(case, w, limits.get(w["index"]), t_max)) for w in walls]
 
 
 def wall_checks(case: LineCase) -> list:
     """One check per hose or tube whose wall ``wall_judgements`` judges (a part near a heat source).
 
-    With no part in air of its own and the under-hood air no hotter than the fluid's highest temperature,
-    no wall can be judged (a wall lies between the fluid and the air at every point, so it never runs hotter
-    than the fluid's highest): the walls are then not worked out (the candidates of a line are judged often).
+    With the under-hood air no hotter than the fluid's highest temperature, only the parts in air of their
+    own can be judged (a wall lies between the fluid and the air at every point, so no other wall runs hotter
+    than the fluid's highest): the walls of the others are not worked out (the candidates of a line are
+    judged often).
     """
-    t_max = _temperatures(case)[0]
-    if case.job.thermal["air_temp_c"] <= t_max and not any(
-            p["kind"] in ("hose", "tube") and p.get("local_air_temp_c") is not None for p in case.parts):
+    own = [p for p in case.parts if p["kind"] in ("hose", "tube") and p.get("local_air_temp_c") is not None]
+    if case.job.thermal["air_temp_c"] > _temperatures(case)[0]:
+        walls = case.walls
+    elif not own:
         return []
-    return [check("wall temperature", w["verdict"], w["message"]) for w in wall_judgements(case) if w["verdict"]]
+    else:
+        walls = case.own_air_walls
+    return [check("wall temperature", w["verdict"], w["message"]) for w in _judge_walls(case, walls) if w["verdict"]]
 
 
 def suction_check(case: LineCase) -> dict | None:

@@ -91,7 +91,7 @@ def _state(fluid, t_c: float, memo: dict):
     return memo[key]
 
 
-def line_walls(job, parts, solved, j: int, memo: dict | None = None) -> list[dict]:
+def line_walls(job, parts, solved, j: int, memo: dict | None = None, only=None) -> list[dict]:
     """Every hose and tube of line ``j`` as built, with its wall temperatures at each operating point.
 
     Parameters
@@ -106,6 +106,8 @@ def line_walls(job, parts, solved, j: int, memo: dict | None = None) -> list[dic
         The line's place in the user's list, from 0.
     memo : dict, optional
         Fluid states and wall points kept between calls (the candidates of one line share it).
+    only : callable, optional
+        Which parts to work out (``only(part)``); every hose and tube when None.
 
     Returns
     -------
@@ -118,6 +120,8 @@ def line_walls(job, parts, solved, j: int, memo: dict | None = None) -> list[dic
     memo = {} if memo is None else memo
     out = []
     for k, p in enumerate(parts):
+        if only is not None and not only(p):
+            continue
         surface = line_surface(p, job.thermal)
         if surface is None:
             continue

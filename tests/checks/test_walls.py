@@ -22,7 +22,8 @@ def _case(kind, outer_c, limit_c, local_c=180.0, fluid_c=90.0, flow=True):
     # than the fluid must come from air hotter than the fluid)
     job = SimpleNamespace(thermal={"air_temp_c": 180.0 if local_c is None else 50.0})
     parts = ({"kind": "fitting"}, {"kind": kind, "local_air_temp_c": local_c})
-    return SimpleNamespace(index=0, walls=[wall], conditions=({"name": "idle", "fluid_temp_c": fluid_c},),
+    return SimpleNamespace(index=0, walls=[wall], own_air_walls=[wall] if local_c is not None else [],
+                           conditions=({"name": "idle", "fluid_temp_c": fluid_c},),
                            part_ratings=({"index": 1, "max_temp_c": limit_c},), job=job, parts=parts)
 
 
@@ -99,6 +100,28 @@ def test_walls_are_not_worked_out_where_none_can_be_judged():
         def walls(self):
             raise AssertionError("walls read")
     case = _case("hose", 80.0, 121.0, local_c=None)
-    quiet = NoWalls(**{k: v for k, v in vars(case).items() if k != "walls"})
+    quiet = NoWalls(**{k: v for k, v in vars(case).items() if k not in ("walls", "own_air_walls")})
     quiet.job = SimpleNamespace(thermal={"air_temp_c": 50.0})
     assert wall_checks(quiet) == []
+
+
+def test_the_checks_of_the_demos_equal_those_of_every_wall_judged():
+    # Source: a wall lies between the fluid and the air (exact): working out only the parts in air of their own
+    # when the under-hood air is no hotter than the fluid gives the same checks as judging every wall.
+    from calc.model.prepared import prepare
+    from calc.stages.assembly import assembly_stage
+    from calc.stages.circuit import circuit_stage
+    from calc.stages.lines import lines_stage
+    from calc.stages.ports import ports_stage
+    from ..jobs import demo_paths
+    import json
+    for path in demo_paths():
+        job, problems, _ = prepare(json.loads(path.read_text(encoding="utf-8")))
+        assert not problems
+        ports = ports_stage(job)
+        assembly = assembly_stage(job, ports)
+        lines = lines_stage(job, ports, assembly, circuit_stage(job, assembly))
+        for j, walls in enumerate(lines.walls):
+            every = [(w["label"], w["verdict"], w["message"]) for w in walls if w["verdict"]]
+            shown = [(c["message"]) for c in lines.checks[j] if c["check"] == "wall temperature"]
+            assert shown == [m for _, _, m in every], path.name
