@@ -2,6 +2,7 @@
 import json
 import subprocess
 import sys
+from pathlib import Path
 
 import pytest
 
@@ -102,3 +103,17 @@ def test_describe_on_an_ascii_terminal(tmp_path):
     # Source: stated behaviour: every command's output degrades the same way.
     r = _run_ascii("describe", "--markdown")
     assert r.returncode == 0 and "deg C" in r.stdout.decode("ascii")
+
+
+def test_a_reader_that_goes_away_gets_no_traceback():
+    # Source: stated behaviour (a report piped into a reader that stops early, like `| head -1`): no Python
+    # traceback on stderr; Python's documented recipe for SIGPIPE (signal module notes).
+    demo = Path(__file__).resolve().parents[2] / "calc" / "data" / "demos" / "swap-remote-reservoir.json"
+    # the JSON result is far larger than a pipe's buffer (64 KiB on Linux), so the writer meets the closed pipe
+    p = subprocess.Popen([sys.executable, "-m", "calc", "evaluate", str(demo), "--json"], stdout=subprocess.PIPE,
+                         stderr=subprocess.PIPE, cwd=Path(__file__).resolve().parents[2])
+    assert p.stdout.read(1) == b"{"
+    p.stdout.close()  # the reader goes away with most of the report unread
+    err = p.stderr.read().decode()
+    assert p.wait(timeout=60) == 1  # Python's recipe exits 1
+    assert "Traceback" not in err and "BrokenPipeError" not in err, err
