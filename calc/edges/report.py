@@ -5,6 +5,9 @@ to the display system by ``calc.edges.units``; the sentences are localized the s
 """
 from __future__ import annotations
 
+import math
+
+from ..data.tables import fitting_families, tube_materials
 from ..model.job import field_unit
 from ..model.result import field_at
 from .units import label, localize_result, to_display
@@ -40,6 +43,45 @@ class _Show:
     def fig(self, v, path: str, fmt: str = "{:.2f}") -> str:
         """Number and unit: '1.98 gpm'."""
         return f"{self.num(v, path, fmt)} {self.unit(path)}"
+
+
+def _order_length(total_mm: float, s: _Show) -> str:
+    """A length to order, never shorter than the total: to 0.01 m, or to 0.1 ft (the build sheet's shop precision
+    for 'Hose and tube to order')."""
+    shown = to_display(total_mm / 1000.0, "length_m", s.units)
+    step = 0.1 if s.units == "us" else 0.01
+    return f"{math.ceil(shown / step - 1e-9) * step:.{1 if s.units == 'us' else 2}f} {label('length_m', s.units)}"
+
+
+def _used_on(lines: list) -> str:
+    return ("line " if len(lines) == 1 else "lines ") + ", ".join(str(i + 1) for i in lines)
+
+
+def _order_lines(order: dict, s: _Show) -> list[str]:
+    """The order list: hose per class and size, tube per material and size, fittings, adapters, devices."""
+    if not order:
+        return []
+    families = fitting_families()
+    size = "{:.3f}" if s.units == "us" else "{:.2f}"  # the sheet's bores and tube sizes: 0.001 in, 0.01 mm
+    out = ["", "Order list (every line as built)"]
+    for h in order["hoses"]:
+        what = f"hose {h['class']} -{h['dash']}" if h["class"] else "hose, class not named"
+        out.append(f"  {what}, bore {s.fig(h['bore_mm'], 'order.hoses[].bore_mm', size)}: "
+                   f"{_order_length(h['total_mm'], s)} in {h['pieces']} piece{'s' * (h['pieces'] != 1)} "
+                   f"({_used_on(h['lines'])})")
+    for t in order["tubes"]:
+        out.append(f"  tube {tube_materials()[t['material']]['name']}, {s.fig(t['od_mm'], 'order.tubes[].od_mm', size)}"
+                   f" x {s.fig(t['wall_mm'], 'order.tubes[].wall_mm', size)}: {_order_length(t['total_mm'], s)} "
+                   f"in {t['pieces']} piece{'s' * (t['pieces'] != 1)} ({_used_on(t['lines'])})")
+    for f in order["fittings"]:
+        fam = families[f["family"]]["name"] + (f" -{f['dash']}" if f["dash"] else "") if f["family"] else "family not named"
+        out.append(f"  {f['count']} x fitting {fam}, {f['shape']}, bore {s.fig(f['bore_mm'], 'order.fittings[].bore_mm', size)} "
+                   f"({_used_on(f['lines'])})")
+    for a in order["adapters"]:
+        out.append(f"  {a['count']} x adapter {a['name']} ({_used_on(a['lines'])})")
+    for d in order["devices"]:
+        out.append(f"  {d['count']} x {'cooler' if d['is_cooler'] else 'series device'} ({_used_on(d['lines'])})")
+    return out
 
 
 def _pump_lines(curve: dict, s: _Show) -> list[str]:
@@ -271,6 +313,7 @@ def text_report(res: dict, units: str = "metric") -> str:
             out.extend(_candidate_lines(ln, s))
     if res.get("thermal"):
         out.extend(_thermal_lines(res["thermal"], s))
+    out.extend(_order_lines(res.get("order") or {}, s))
     if res.get("warnings"):
         out.append("")
         out.append("Warnings")

@@ -4,6 +4,8 @@ from importlib import resources
 
 from calc import evaluate
 
+from ..jobs import demo_job
+
 
 def _demo():
     return json.loads((resources.files("calc") / "data" / "demos" / "compact-hatch.json").read_text())
@@ -14,3 +16,18 @@ def test_report_shows_rating_candidates_and_cautions():
     text = text_report(evaluate(_demo()))
     assert "rating: working" in text and "weakest part" in text and "hose candidates" in text
     assert all(c in text for c in CAUTIONS)
+
+
+def test_the_report_ends_with_the_order_list_of_the_engine():
+    # Source: calc.evaluate's order list for the same job (the engine's totals), to order never shorter: 0.695 m
+    # of -6 hose is 0.70 m to 0.01 m; words for end families from the fittings table (calc/data/fittings.json).
+    from calc.data.tables import fitting_families
+    from calc.edges.report import text_report
+    res = evaluate(demo_job("swap-remote-reservoir"))
+    text = text_report(res, "metric")
+    order = text.split("Order list (every line as built)\n", 1)[1].split("\n\n", 1)[0].splitlines()
+    hose = res["order"]["hoses"][0]
+    assert order[0] == f"  hose {hose['class']} -{hose['dash']}, bore 9.52 mm: 0.70 m in 1 piece (line 1)"
+    assert hose["total_mm"] == 695.0
+    assert any(fitting_families()["jic-37"]["name"] in ln for ln in order) and not any("jic-37" in ln for ln in order)
+    assert len(order) == sum(len(v) for v in res["order"].values())
