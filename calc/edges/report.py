@@ -45,12 +45,16 @@ class _Show:
         return f"{self.num(v, path, fmt)} {self.unit(path)}"
 
 
+#: Steps of a length to order, rounded up: the build sheet's shop precision for 'Hose and tube to order'
+#: (site/static/js/precision.js; tests/edges/test_report.py holds the two to the same figures).
+ORDER_LENGTH_STEP = {"metric": (0.01, 2), "us": (0.1, 1)}
+
+
 def _order_length(total_mm: float, s: _Show) -> str:
-    """A length to order, never shorter than the total: to 0.01 m, or to 0.1 ft (the build sheet's shop precision
-    for 'Hose and tube to order')."""
+    """A length to order, never shorter than the total, at the sheet's shop precision."""
     shown = to_display(total_mm / 1000.0, "length_m", s.units)
-    step = 0.1 if s.units == "us" else 0.01
-    return f"{math.ceil(shown / step - 1e-9) * step:.{1 if s.units == 'us' else 2}f} {label('length_m', s.units)}"
+    step, decimals = ORDER_LENGTH_STEP[s.units]
+    return f"{math.ceil(shown / step - 1e-9) * step:.{decimals}f} {label('length_m', s.units)}"
 
 
 def _used_on(lines: list) -> str:

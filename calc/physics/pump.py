@@ -7,7 +7,7 @@ References
 """
 from __future__ import annotations
 
-__all__ = ["geometric_flow_m3_s", "delivered_flow_m3_s", "table_flow", "pulley_ratio_from_diameters"]
+__all__ = ["geometric_flow_m3_s", "delivered_flow_m3_s", "pulley_ratio_from_diameters"]
 
 
 def geometric_flow_m3_s(displacement_cc_rev: float, engine_rpm: float, pulley_ratio: float) -> float:
@@ -70,41 +70,6 @@ def pulley_ratio_from_diameters(crank_pulley_mm: float, pump_pulley_mm: float) -
     return crank_pulley_mm / pump_pulley_mm
 
 
-def table_flow(table, x: float) -> float:
-    """A value read from a table of ``[x, y]`` rows with increasing x: linear between the rows, held at
-    the first or last row's y beyond the table's ends.
-
-    Written by hand (a few lines; the engine may not import numpy in the browser): ``numpy.interp``
-    does the same, with the same flat ends.
-
-    Parameters
-    ----------
-    table : sequence of (float, float)
-        Rows ``[x, y]``, x strictly increasing; at least one row.
-    x : float
-        Where to read.
-
-    Returns
-    -------
-    y : float
-
-    Examples
-    --------
-    A pump's flow table, 1000 rpm 8 L/min and 3000 rpm 6 L/min: 2000 rpm is half way, 7 L/min (exact);
-    beyond the table the end values hold:
-
-    >>> t = [[1000.0, 8.0], [3000.0, 6.0]]
-    >>> table_flow(t, 2000.0), table_flow(t, 500.0), table_flow(t, 5000.0)
-    (7.0, 8.0, 6.0)
-    """
-    if x <= table[0][0]:
-        return table[0][1]
-    for (x0, y0), (x1, y1) in zip(table, table[1:]):
-        if x <= x1:
-            return y0 + (x - x0) / (x1 - x0) * (y1 - y0)
-    return table[-1][1]
-
-
 def delivered_flow_m3_s(displacement_cc_rev: float, engine_rpm: float, pulley_ratio: float,
                         volumetric_efficiency: float, flow_limit_m3_s: float) -> tuple[float, float, bool]:
     """Flow the pump delivers to its outlet, capped by the flow-control valve.
@@ -112,7 +77,7 @@ def delivered_flow_m3_s(displacement_cc_rev: float, engine_rpm: float, pulley_ra
     Q = V_d x n_engine x pulley ratio x eta_v, then min(Q, flow limit). The
     excess recirculates inside the pump and does not reach the lines. A pump
     whose flow control follows a measured table passes the table's flow at its
-    speed as ``flow_limit_m3_s`` (``table_flow``).
+    speed as ``flow_limit_m3_s`` (``calc.physics.tabulated.interpolate_flat``).
 
     Parameters
     ----------

@@ -8,6 +8,8 @@ References
 """
 from __future__ import annotations
 
+from .tabulated import interpolate_flat
+
 __all__ = ["barlow_burst_mpa", "lame_burst_mpa", "derate_factor"]
 
 
@@ -117,10 +119,4 @@ def derate_factor(table, t_c: float) -> float:
     """
     if not table:
         return 1.0
-    pts = sorted((float(a), float(b)) for a, b in table)
-    if t_c <= pts[0][0]:
-        return pts[0][1]
-    for (t0, f0), (t1, f1) in zip(pts, pts[1:]):
-        if t_c <= t1:
-            return f0 + (f1 - f0) * (t_c - t0) / (t1 - t0)
-    return pts[-1][1]
+    return interpolate_flat(sorted((float(a), float(b)) for a, b in table), t_c)

@@ -134,56 +134,68 @@ def _gear_rating_check(job) -> list[dict]:
                                        "maximum working pressure")]
 
 
+def _half_litre_up(lpm: float) -> float:
+    return float(math.ceil(lpm * 2.0 - 1e-9) / 2.0)
+
+
 def _parking_fix(job, c, need: float) -> dict | None:
     """The one edit that brings the pump's flow at the slowest point up to the gear's need, or None."""
-    pump, circuit_flow = job.pump, c["pump_flow_uncapped_lpm"]
+    pump, uncapped = job.pump, c["pump_flow_uncapped_lpm"]
     if pump.get("flow_table_rpm_lpm"):
         return None  # the table's own flow limits: another pump (or its maker's setting), not one field
-    if c["flow_control_limiting"] or circuit_flow >= need:
-        return fix("pump.flow_limit_lpm", float(math.ceil(need * 2.0 - 1e-9) / 2.0), field_label("pump", "flow_limit_lpm"))
-    ratio = pump["pulley_ratio"] * need / circuit_flow
+    if c["flow_control_limiting"] or uncapped >= need:
+        return fix("pump.flow_limit_lpm", _half_litre_up(need), field_label("pump", "flow_limit_lpm"))
+    ratio = pump["pulley_ratio"] * need / uncapped
     if pump["pump_pulley_mm"] is not None:
         return fix("pump.pump_pulley_mm", float(math.floor(pump["crank_pulley_mm"] / ratio + 1e-9)),
                    field_label("pump", "pump_pulley_mm"))
     return fix("pump.pulley_ratio", float(math.ceil(ratio * 100.0 - 1e-9) / 100.0), field_label("pump", "pulley_ratio"))
 
 
+def _parking_flow_check(job, conditions, need: float) -> dict:
+    """The pump's flow at the slowest operating point against the gear's need for full assist."""
+    c = min(conditions, key=lambda x: x["engine_rpm"])
+    if c["pump_flow_lpm"] >= need * (1.0 - 1e-9):  # a fix that gives the need exactly settles (rounding)
+        return check("gear flow", "ok", f"the pump delivers {c['pump_flow_lpm']:.2f} L/min at the slowest operating "
+                                        f"point, {said(c['name'])}, at least the {need:g} L/min the gear needs")
+    if job.pump.get("flow_table_rpm_lpm"):
+        why = ("the pump's flow table: a smaller pump pulley turns the pump faster at idle, where its table may give "
+               "more, or use a pump with more flow at that speed")
+    elif c["flow_control_limiting"]:
+        why = "the flow-control setting: raise it"
+    else:
+        why = "the pump's displacement and pulley ratio: a smaller pump pulley or a larger pump"
+    out = check("gear flow", "caution", f"assist falls off when parking: at {said(c['name'])} ({c['engine_rpm']:g} "
+                                        f"rpm) the pump delivers {c['pump_flow_lpm']:.2f} L/min, less than the "
+                                        f"{need:g} L/min the gear needs for full assist (limited by {why})")
+    f = _parking_fix(job, c, need)
+    if f:
+        out["fix"] = f
+    return out
+
+
+def _setting_over_need_check(job, need: float) -> list[dict]:
+    """A flow-control setting (or a flow table's highest flow) far above the gear's need."""
+    table = job.pump.get("flow_table_rpm_lpm")
+    setting = max(r[1] for r in table) if table else job.pump["flow_limit_lpm"]
+    if setting <= need * (1.0 + FLOW_OVER_NEED):
+        return []
+    what = "the flow table's highest flow" if table else "the flow-control setting"
+    msg = (f"{what}, {setting:g} L/min, is more than {FLOW_OVER_NEED:.0%} above the {need:g} L/min the gear needs: "
+           "more heat in the fluid and a lighter feel than the gear was built for (common practice, no source)")
+    out = check("flow-control setting", "caution", ("use a pump set nearer the gear's need: " if table else
+                                                     "lower the setting: ") + msg)
+    if not table:
+        out["fix"] = fix("pump.flow_limit_lpm", _half_litre_up(need * (1 + FLOW_MARGIN)),
+                         field_label("pump", "flow_limit_lpm"))
+    return [out]
+
+
 def _gear_flow_checks(job, conditions) -> list[dict]:
     need = job.gear["flow_needed_lpm"]
     if need is None or not conditions:
         return []
-    c = min(conditions, key=lambda x: x["engine_rpm"])
-    if c["pump_flow_lpm"] < need * (1.0 - 1e-9):  # a fix that gives the need exactly settles (rounding)
-        if job.pump.get("flow_table_rpm_lpm"):
-            why = ("the pump's flow table: a smaller pump pulley turns the pump faster at idle, where its table may give "
-                   "more, or use a pump with more flow at that speed")
-        elif c["flow_control_limiting"]:
-            why = "the flow-control setting: raise it"
-        else:
-            why = "the pump's displacement and pulley ratio: a smaller pump pulley or a larger pump"
-        out = check("gear flow", "caution", f"assist falls off when parking: at {said(c['name'])} ({c['engine_rpm']:g} "
-                                            f"rpm) the pump delivers {c['pump_flow_lpm']:.2f} L/min, less than the "
-                                            f"{need:g} L/min the gear needs for full assist (limited by {why})")
-        f = _parking_fix(job, c, need)
-        if f:
-            out["fix"] = f
-        out = [out]
-    else:
-        out = [check("gear flow", "ok", f"the pump delivers {c['pump_flow_lpm']:.2f} L/min at the slowest operating "
-                                        f"point, {said(c['name'])}, at least the {need:g} L/min the gear needs")]
-    table = job.pump.get("flow_table_rpm_lpm")
-    setting = max(r[1] for r in table) if table else job.pump["flow_limit_lpm"]
-    if setting > need * (1.0 + FLOW_OVER_NEED):
-        what = "the flow table's highest flow" if table else "the flow-control setting"
-        msg = (f"{what}, {setting:g} L/min, is more than {FLOW_OVER_NEED:.0%} above the {need:g} L/min the gear needs: "
-               "more heat in the fluid and a lighter feel than the gear was built for (common practice, no source)")
-        flagged = check("flow-control setting", "caution", ("use a pump set nearer the gear's need: " if table else
-                                                             "lower the setting: ") + msg)
-        if not table:
-            flagged["fix"] = fix("pump.flow_limit_lpm", float(math.ceil(need * (1 + FLOW_MARGIN) * 2.0 - 1e-9) / 2.0),
-                                 field_label("pump", "flow_limit_lpm"))
-        out.append(flagged)
-    return out
+    return [_parking_flow_check(job, conditions, need)] + _setting_over_need_check(job, need)
 
 
 def circuit_checks(job, conditions) -> list[dict]:

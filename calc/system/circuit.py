@@ -37,7 +37,8 @@ from fluids.numerics import brenth
 from ..data.practice import INLET_FLOOR_BAR, INLET_MIN_BAR
 from ..model.fluid import state_of
 from ..model.job_rules import gear_constants
-from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa, table_flow
+from ..physics.pump import delivered_flow_m3_s, geometric_flow_m3_s, metering_drop_pa
+from ..physics.tabulated import interpolate_flat
 from ..physics.valve import valve_drop_pa
 from .line import compile_line, line_flow
 
@@ -137,11 +138,11 @@ class Circuit:
 
     def flow_limit_m3_s(self, engine_rpm: float) -> float:
         """The most the flow control lets out at ``engine_rpm``: the pump's flow table read at its speed
-        (``calc.physics.pump.table_flow``), else the flat flow-control setting, [m^3/s]."""
+        (``calc.physics.tabulated.interpolate_flat``), else the flat flow-control setting, [m^3/s]."""
         p = self.pump
         table = p.get("flow_table_rpm_lpm")
         if table:
-            return table_flow(table, engine_rpm * p["pulley_ratio"]) * LPM
+            return interpolate_flat(table, engine_rpm * p["pulley_ratio"]) * LPM
         return p["flow_limit_lpm"] * LPM
 
     def pump_flow(self, engine_rpm: float) -> tuple[float, float, bool]:

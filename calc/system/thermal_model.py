@@ -40,6 +40,7 @@ from ..data.tables import tube_materials, typical_hose_walls
 from ..physics.convection import h_inside_pipe
 from ..physics.heat import cylinder_ua_per_m
 from ..physics.pump import mechanical_loss_w, pump_heat_w
+from ..physics.tabulated import interpolate_flat
 from .circuit import BAR, LPM
 from .line import part_bore_mm
 
@@ -58,13 +59,7 @@ def default_hose_wall_mm(bore_mm: float) -> float:
     >>> default_hose_wall_mm(9.5), default_hose_wall_mm(100.0)
     (4.6, 6.3)
     """
-    rows = [(r["bore_mm"], r["wall_mm"]) for r in typical_hose_walls()]
-    if bore_mm <= rows[0][0]:
-        return rows[0][1]
-    for (b0, w0), (b1, w1) in zip(rows, rows[1:]):
-        if bore_mm <= b1:
-            return w0 + (bore_mm - b0) / (b1 - b0) * (w1 - w0)
-    return rows[-1][1]
+    return interpolate_flat([(r["bore_mm"], r["wall_mm"]) for r in typical_hose_walls()], bore_mm)
 
 
 def line_surface(p, th) -> dict | None:

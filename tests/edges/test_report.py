@@ -31,3 +31,14 @@ def test_the_report_ends_with_the_order_list_of_the_engine():
     assert hose["total_mm"] == 695.0
     assert any(fitting_families()["jic-37"]["name"] in ln for ln in order) and not any("jic-37" in ln for ln in order)
     assert len(order) == sum(len(v) for v in res["order"].values())
+
+
+def test_the_reports_order_lengths_round_as_the_build_sheet_does():
+    # Source: the project's one shop-precision table (site/static/js/precision.js, stated in the README): the
+    # report's steps for lengths to order are the sheet's 'order_length' row.
+    import re
+    from pathlib import Path
+    from calc.edges.report import ORDER_LENGTH_STEP
+    js = (Path(__file__).resolve().parents[2] / "site/static/js/precision.js").read_text(encoding="utf-8")
+    row = re.search(r'order_length: \{[^}]*metric: \{ step: ([\d.]+) \}, us: \{ step: ([\d.]+) \}, mode: "up"', js)
+    assert row and (ORDER_LENGTH_STEP["metric"][0], ORDER_LENGTH_STEP["us"][0]) == (float(row[1]), float(row[2]))

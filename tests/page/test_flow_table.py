@@ -34,6 +34,12 @@ def _cell(pg, row, col):
     return pg.locator(f'{TABLE} input[data-cell="{row},{col}"]')
 
 
+def _type(pg, row, col, text):
+    """Type into a cell and leave it, as a user does (the table reads a cell on its change)."""
+    _cell(pg, row, col).fill(text)
+    _cell(pg, row, col).dispatch_event("change")
+
+
 def _metric(pg):
     if pg.get_attribute("body", "data-units") != "metric":
         pg.check('input[name="units"][value="metric"]')
@@ -65,8 +71,7 @@ def test_a_cell_edit_reaches_the_job_and_the_engine(page, site):  # noqa: F811
     _metric(page)
     job = _truck(site)
     _open_job(page, job, "truck.json")
-    _cell(page, 1, 1).fill("12.5")
-    _cell(page, 1, 1).dispatch_event("change")
+    _type(page, 1, 1, "12.5")
     _settle(page)
     job["pump"]["flow_table_rpm_lpm"][1][1] = 12.5
     assert _job(page)["pump"]["flow_table_rpm_lpm"] == job["pump"]["flow_table_rpm_lpm"]
@@ -79,16 +84,14 @@ def test_bad_text_is_refused_with_the_cell_in_words_and_the_job_keeps_its_table(
     _metric(page)
     job = _truck(site)
     _open_job(page, job, "truck.json")
-    _cell(page, 2, 0).fill("2,000")
-    _cell(page, 2, 0).dispatch_event("change")
+    _type(page, 2, 0, "2,000")
     msg = _error(page)
     assert msg.startswith("Pump speed in row 3: use a point for decimals: 2,000 was not taken")
     assert "the last complete table is kept" in msg
     assert _cell(page, 2, 0).get_attribute("aria-invalid") == "true"
     assert _cell(page, 2, 0).input_value() == "2,000"  # what was typed stays in the cell
     assert _job(page)["pump"]["flow_table_rpm_lpm"] == job["pump"]["flow_table_rpm_lpm"]
-    _cell(page, 2, 0).fill("2000")
-    _cell(page, 2, 0).dispatch_event("change")
+    _type(page, 2, 0, "2000")
     _settle(page)
     assert page.locator('fieldset[data-seg="pump"] .fld-table .fld-error').is_hidden()
 
@@ -102,10 +105,8 @@ def test_rows_are_added_typed_and_removed_with_undo(page, site):  # noqa: F811
     assert len(_cells(page)) == n + 1
     assert f"row {n + 1} is not complete: type its pump speed and delivered flow" in _error(page)
     assert len(_job(page)["pump"]["flow_table_rpm_lpm"]) == n  # a draft row is not in the job
-    _cell(page, n, 0).fill("6000")
-    _cell(page, n, 0).dispatch_event("change")
-    _cell(page, n, 1).fill("8.5")
-    _cell(page, n, 1).dispatch_event("change")
+    _type(page, n, 0, "6000")
+    _type(page, n, 1, "8.5")
     _settle(page)
     assert _job(page)["pump"]["flow_table_rpm_lpm"][-1] == [6000.0, 8.5]
     page.click(f'{TABLE} tr[data-row="0"] .remove-row')
@@ -121,8 +122,7 @@ def test_the_engines_error_names_the_row_and_column(page, site):  # noqa: F811
     _metric(page)
     job = _truck(site)
     _open_job(page, job, "truck.json")
-    _cell(page, 2, 0).fill("900")  # below row 2's 1000 rpm
-    _cell(page, 2, 0).dispatch_event("change")
+    _type(page, 2, 0, "900")  # below row 2's 1000 rpm
     _settle(page)
     job["pump"]["flow_table_rpm_lpm"][2][0] = 900
     # Source: calc.evaluate (CPython) on the same job: the engine's own words for that cell.
@@ -140,8 +140,7 @@ def test_us_units_show_gpm_and_read_gpm(page, site):  # noqa: F811
     shown = float(_cell(page, 1, 1).input_value())
     # Source: the engine's unit table (L/min -> US gpm, NIST SP 811), applied to the job's 13 L/min.
     assert abs(shown - 13.0 * GPM_PER_LPM) < 0.0006
-    _cell(page, 1, 1).fill("3")
-    _cell(page, 1, 1).dispatch_event("change")
+    _type(page, 1, 1, "3")
     _settle(page)
     assert abs(_job(page)["pump"]["flow_table_rpm_lpm"][1][1] - 3 / GPM_PER_LPM) < 1e-9
     _metric(page)

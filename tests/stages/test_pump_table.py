@@ -9,7 +9,8 @@ from hypothesis import strategies as st
 from calc import evaluate
 from calc.model.edits import apply_edits
 from calc.model.prepared import prepare
-from calc.physics.pump import pulley_ratio_from_diameters, table_flow
+from calc.physics.pump import pulley_ratio_from_diameters
+from calc.physics.tabulated import interpolate_flat
 from calc.system.circuit import LPM, Circuit
 
 from ..jobs import demo_job, errors_of, simple_job
@@ -39,17 +40,17 @@ def _warnings(res):
     (600.0, 6.0), (800.0, 7.25), (1500.0, 8.5), (2750.0, 7.5), (3500.0, 6.5),  # on rows and half-way between them
     (100.0, 6.0), (9000.0, 6.5),  # held flat beyond the ends
 ])
-def test_table_flow_against_hand_worked_values(rpm, lpm):
+def test_flow_table_reading_against_hand_worked_values(rpm, lpm):
     # Source: hand-worked linear interpolation (exact): 800 rpm is half way from 600 to 1000, so 6 + 2.5 / 2 = 7.25;
     # 2750 rpm is half way from 2000 to 3500, so 8.5 - 2 / 2 = 7.5; beyond the ends the end rows hold (as stated).
-    assert table_flow(TABLE, rpm) == pytest.approx(lpm, abs=1e-12)
+    assert interpolate_flat(TABLE, rpm) == pytest.approx(lpm, abs=1e-12)
 
 
 @given(st.floats(0.0, 10000.0))
-def test_table_flow_is_numpy_interp(rpm):
+def test_flow_table_reading_is_numpy_interp(rpm):
     # Source: numpy.interp (linear interpolation with the end values held beyond the ends), called directly.
     xs, ys = zip(*TABLE)
-    assert table_flow(TABLE, rpm) == pytest.approx(float(numpy.interp(rpm, xs, ys)), abs=1e-12)
+    assert interpolate_flat(TABLE, rpm) == pytest.approx(float(numpy.interp(rpm, xs, ys)), abs=1e-12)
 
 
 def test_pulley_ratio_from_diameters_is_exact():

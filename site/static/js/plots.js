@@ -1,13 +1,6 @@
 // Line charts as inline SVG, drawn from numbers: axes, ticks, unit labels, title.
 // Series differ by dash pattern and marker shape, so they read in black and white.
-const NS = "http://www.w3.org/2000/svg";
-
-function s(tag, attrs = {}, text) {
-  const node = document.createElementNS(NS, tag);
-  for (const [k, v] of Object.entries(attrs)) node.setAttribute(k, String(v));
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
+import { svgEl as s } from "./util.js";
 
 export function niceTicks(lo, hi, count = 5) {
   if (!(hi > lo)) { hi = lo + 1; lo -= 1; }

@@ -2,16 +2,9 @@
 // bend marked by its radius, a too-tight bend in the failing style (in words as well), and the hose at
 // both ends of the engine's movement. The engine gives every point, radius and verdict; this module only
 // projects and draws them.
-import { badge, el } from "./util.js";
+import { badge, el, svgEl as s } from "./util.js";
 import { shop } from "./precision.js";
 
-const NS = "http://www.w3.org/2000/svg";
-function s(tag, attrs = {}, text) {
-  const node = document.createElementNS(NS, tag);
-  for (const [k, v] of Object.entries(attrs)) node.setAttribute(k, String(v));
-  if (text !== undefined) node.textContent = text;
-  return node;
-}
 
 // Each view: its name, the two coordinates it shows (across, up) and their names.
 export const VIEWS = [

@@ -5,6 +5,14 @@ export function readJSON(id) {
   return JSON.parse(document.getElementById(id).textContent);
 }
 
+// An SVG element with its attributes and, optionally, its text (the plots and the route sketch draw with it).
+export function svgEl(tag, attrs = {}, text) {
+  const node = document.createElementNS("http://www.w3.org/2000/svg", tag);
+  for (const [k, v] of Object.entries(attrs)) node.setAttribute(k, String(v));
+  if (text !== undefined) node.textContent = text;
+  return node;
+}
+
 export function el(tag, attrs = {}, ...children) {
   const node = document.createElement(tag);
   for (const [key, value] of Object.entries(attrs)) {
